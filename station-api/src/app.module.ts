@@ -1,0 +1,28 @@
+import { MikroOrmModule } from '@mikro-orm/nestjs';
+import { DynamicModule, Module } from '@nestjs/common';
+import { ConfigModule, ConfigService } from '@nestjs/config';
+import { ServeStaticModule } from '@nestjs/serve-static';
+import { existsSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { EnvironmentVariables, loadEnv, validateEnv } from './config/env.validation';
+import { createOrmConfig } from './mikro-orm.config';
+
+function staticUi(): DynamicModule[] {
+  const dist = loadEnv().UI_DIST;
+  if (!dist || !existsSync(dist)) return [];
+  // Express 5 syntax: '/api/{*path}' (the old '/api*' turns unknown API routes into 500s)
+  return [ServeStaticModule.forRoot({ rootPath: resolve(dist), exclude: ['/api/{*path}', '/socket.io/{*path}'] })];
+}
+
+@Module({
+  imports: [
+    ConfigModule.forRoot({ isGlobal: true, ignoreEnvFile: false, validate: validateEnv, cache: true }),
+    MikroOrmModule.forRootAsync({
+      inject: [ConfigService],
+      useFactory: (config: ConfigService<EnvironmentVariables, true>) =>
+        createOrmConfig(config.get('DATABASE_PATH', { infer: true })),
+    }),
+    ...staticUi(),
+  ],
+})
+export class AppModule {}

@@ -1,0 +1,41 @@
+import { BadRequestException, INestApplication, ValidationError, ValidationPipe } from '@nestjs/common';
+import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
+import { ApiExceptionFilter } from './common/filters/http-exception.filter';
+
+function flatten(errors: ValidationError[], parent = ''): { field: string; problems: string[] }[] {
+  return errors.flatMap((e) => {
+    const field = parent ? `${parent}.${e.property}` : e.property;
+    const own = e.constraints ? [{ field, problems: Object.values(e.constraints) }] : [];
+    return [...own, ...flatten(e.children ?? [], field)];
+  });
+}
+
+/** Global pipes, filter, prefix and OpenAPI; used by main.ts and by the e2e tests alike. */
+export function configureApp(app: INestApplication): void {
+  app.setGlobalPrefix('api', { exclude: [] });
+  app.enableShutdownHooks();
+  app.useGlobalPipes(
+    new ValidationPipe({
+      whitelist: true,
+      forbidNonWhitelisted: true,
+      transform: true,
+      exceptionFactory: (errors) => {
+        const details = flatten(errors);
+        const message = details
+          .map((d) => (d.problems.some((p) => p.includes('should not exist')) ? `Unknown field "${d.field}"` : d.problems.join('; ')))
+          .join('; ');
+        return new BadRequestException({ message, details });
+      },
+    }),
+  );
+  app.useGlobalFilters(new ApiExceptionFilter());
+  const doc = new DocumentBuilder()
+    .setTitle('Railwright station API')
+    .setDescription('End-of-line functional test of DC-DC power modules')
+    .setVersion('0.1.0')
+    .addBearerAuth()
+    .build();
+  SwaggerModule.setup('api/docs', app, () => SwaggerModule.createDocument(app, doc), {
+    jsonDocumentUrl: 'api/docs/openapi.json',
+  });
+}

@@ -1,0 +1,74 @@
+import { Entity, Enum, Index, ManyToOne, Property } from '@mikro-orm/core';
+import { BaseEntity } from '../common/base.entity';
+import { TestRun } from './test-run.entity';
+
+export enum MeasurementVerdict {
+  Pass = 'pass',
+  Fail = 'fail',
+  /** inside the specification limits, outside the guarded acceptance limits */
+  GuardFail = 'guard_fail',
+}
+
+/**
+ * One judged quantity. Written once, in its own transaction, as soon as it is judged; never updated.
+ * The limits in force are copied here so the record stands alone.
+ */
+@Entity({ tableName: 'measurements' })
+@Index({ properties: ['stepKey', 'measuredAt'] })
+export class Measurement extends BaseEntity {
+  @ManyToOne(() => TestRun)
+  run!: TestRun;
+
+  @Property()
+  stepIndex!: number;
+
+  @Property()
+  stepKey!: string;
+
+  @Property()
+  stepName!: string;
+
+  /** Quantity key within the step (the limit's key) */
+  @Property()
+  quantity!: string;
+
+  @Property()
+  name!: string;
+
+  @Property({ type: 'double', nullable: true })
+  value?: number;
+
+  @Property()
+  unit!: string;
+
+  @Property({ type: 'double', nullable: true })
+  lowLimit?: number;
+
+  @Property({ type: 'double', nullable: true })
+  highLimit?: number;
+
+  @Property({ type: 'double', nullable: true })
+  guardedLow?: number;
+
+  @Property({ type: 'double', nullable: true })
+  guardedHigh?: number;
+
+  @Property({ type: 'double' })
+  uncertainty: number = 0;
+
+  @Property()
+  rule!: string;
+
+  @Enum(() => MeasurementVerdict)
+  verdict!: MeasurementVerdict;
+
+  /** Raw fixture readings the value was computed from (and the capture summary) */
+  @Property({ type: 'json', nullable: true })
+  raw?: Record<string, unknown>;
+
+  @Property()
+  startedAt!: Date;
+
+  @Property()
+  measuredAt!: Date;
+}

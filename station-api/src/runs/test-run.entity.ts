@@ -1,0 +1,91 @@
+import { Collection, Entity, Enum, Index, ManyToOne, OneToMany, Property } from '@mikro-orm/core';
+import { BaseEntity } from '../common/base.entity';
+import { Fixture } from '../fixtures/fixture.entity';
+import { Lot } from '../lots/lot.entity';
+import { PlanVersion } from '../plans/plan-version.entity';
+import { Product } from '../products/product.entity';
+import { Station } from '../stations/station.entity';
+import { Unit } from '../units/unit.entity';
+import { User } from '../users/user.entity';
+import { Measurement } from './measurement.entity';
+
+export enum RunVerdict {
+  Running = 'running',
+  Pass = 'pass',
+  Fail = 'fail',
+  /** fixture or software fault: the unit was not judged */
+  Error = 'error',
+  Aborted = 'aborted',
+}
+
+/** One test of one unit on one station. Lot and product are copied for fast yield queries. */
+@Entity({ tableName: 'test_runs' })
+@Index({ properties: ['lot', 'startedAt'] })
+@Index({ properties: ['station', 'startedAt'] })
+@Index({ properties: ['fixture', 'startedAt'] })
+@Index({ properties: ['product', 'startedAt'] })
+export class TestRun extends BaseEntity {
+  @ManyToOne(() => Unit)
+  unit!: Unit;
+
+  @ManyToOne(() => Lot)
+  lot!: Lot;
+
+  @ManyToOne(() => Product)
+  product!: Product;
+
+  @ManyToOne(() => Station)
+  station!: Station;
+
+  @ManyToOne(() => Fixture)
+  fixture!: Fixture;
+
+  @ManyToOne(() => PlanVersion)
+  planVersion!: PlanVersion;
+
+  @ManyToOne(() => User)
+  operator!: User;
+
+  /** 1 for the first test of the unit, 2 for the first retest, ... */
+  @Property()
+  attempt!: number;
+
+  @Enum(() => RunVerdict)
+  @Index()
+  verdict: RunVerdict = RunVerdict.Running;
+
+  @Property()
+  @Index()
+  startedAt: Date = new Date();
+
+  @Property({ nullable: true })
+  finishedAt?: Date;
+
+  /** First failing step key, for Pareto charts */
+  @Property({ nullable: true })
+  @Index()
+  failedStepKey?: string;
+
+  @Property({ type: 'text', nullable: true })
+  errorMessage?: string;
+
+  /** Snapshot of the fixture at start: identification reply, calibration due date, cycle count */
+  @Property({ nullable: true })
+  fixtureIdentity?: string;
+
+  @Property({ nullable: true })
+  fixtureCalibrationDueAt?: Date;
+
+  @Property({ nullable: true })
+  fixtureContactCycles?: number;
+
+  /** Engineer override for retesting an already-passed unit */
+  @Property({ type: 'text', nullable: true })
+  overrideReason?: string;
+
+  @ManyToOne(() => User, { nullable: true })
+  overrideBy?: User;
+
+  @OneToMany(() => Measurement, (m) => m.run)
+  measurements = new Collection<Measurement>(this);
+}

@@ -1,0 +1,37 @@
+import { Entity, Enum, Index, ManyToOne, Property, Unique } from '@mikro-orm/core';
+import { BaseEntity } from '../common/base.entity';
+import { Lot } from '../lots/lot.entity';
+import { Product } from '../products/product.entity';
+
+export enum UnitState {
+  Untested = 'untested',
+  Passed = 'passed',
+  Failed = 'failed',
+  InRepair = 'in_repair',
+  Scrapped = 'scrapped',
+}
+
+/** One manufactured module, identified by its serial. */
+@Entity({ tableName: 'units' })
+export class Unit extends BaseEntity {
+  @Property()
+  @Unique()
+  serial!: string;
+
+  @ManyToOne(() => Lot)
+  lot!: Lot;
+
+  @ManyToOne(() => Product)
+  product!: Product;
+
+  @Enum(() => UnitState)
+  @Index()
+  state: UnitState = UnitState.Untested;
+
+  /** Number of completed runs (pass or fail) on this unit */
+  @Property()
+  testCount: number = 0;
+
+  @Property({ nullable: true })
+  lastTestedAt?: Date;
+}
