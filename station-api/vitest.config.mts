@@ -1,7 +1,12 @@
 import swc from 'unplugin-swc';
+import { fileURLToPath } from 'node:url';
 import { defineConfig } from 'vitest/config';
 
 export default defineConfig({
+  resolve: {
+    // tests use the simulator's sources, so no build of mock-fixture is needed first
+    alias: { '@railwright/mock-fixture': fileURLToPath(new URL('../mock-fixture/src/index.ts', import.meta.url)) },
+  },
   test: {
     globals: false,
     root: './',

@@ -6,6 +6,17 @@ import { existsSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { EnvironmentVariables, loadEnv, validateEnv } from './config/env.validation';
 import { createOrmConfig } from './mikro-orm.config';
+import { AuditModule } from './audit/audit.module';
+import { AuthModule } from './auth/auth.module';
+import { FixturesModule } from './fixtures/fixtures.module';
+import { LotsModule } from './lots/lots.module';
+import { ProductsModule } from './products/products.module';
+import { StationsModule } from './stations/stations.module';
+import { UnitsModule } from './units/units.module';
+import { UsersModule } from './users/users.module';
+import { RunsModule } from './runs/runs.module';
+import { PlansModule } from './plans/plans.module';
+import { FloorModule } from './floor/floor.module';
 
 function staticUi(): DynamicModule[] {
   const dist = loadEnv().UI_DIST;
@@ -22,6 +33,10 @@ function staticUi(): DynamicModule[] {
       useFactory: (config: ConfigService<EnvironmentVariables, true>) =>
         createOrmConfig(config.get('DATABASE_PATH', { infer: true })),
     }),
+    AuditModule, AuthModule, UsersModule, ProductsModule, FixturesModule, LotsModule, StationsModule, UnitsModule,
+    RunsModule,
+    PlansModule,
+    FloorModule,
     ...staticUi(),
   ],
 })

@@ -1,5 +1,5 @@
 import { plainToInstance, Type } from 'class-transformer';
-import { IsIn, IsInt, IsOptional, IsString, Max, Min, MinLength, validateSync } from 'class-validator';
+import { IsIn, IsInt, IsOptional, IsString, Matches, Max, Min, MinLength, validateSync } from 'class-validator';
 
 /** Every environment variable the server reads. Documented in .env.example at the repo root. */
 export class EnvironmentVariables {
@@ -17,6 +17,7 @@ export class EnvironmentVariables {
 
   /** Token lifetime, e.g. 12h (one shift), 30m, 3600 (seconds) */
   @IsOptional() @IsString()
+  @Matches(/^\d+(s|m|h|d)?$/, { message: 'JWT_EXPIRES_IN must be a whole number of seconds or a number followed by s, m, h or d (e.g. 12h)' })
   JWT_EXPIRES_IN: string = '12h';
 
   /** Folder of the built UI to serve; empty to serve none */
@@ -31,8 +32,19 @@ export class EnvironmentVariables {
   @IsOptional() @IsIn(['realistic', 'instant'])
   FIXTURE_SIM_TIMING: 'realistic' | 'instant' = 'realistic';
 
+  /** '1' builds test history when seeding (slow: runs the engine); '0' seeds master data and plans only */
+  @IsOptional() @IsIn(['0', '1'], { message: "SEED_HISTORY must be '0' or '1'" })
+  SEED_HISTORY: '0' | '1' = '1';
+
   @IsOptional() @IsIn(['error', 'warn', 'log', 'debug'])
   LOG_LEVEL: 'error' | 'warn' | 'log' | 'debug' = 'log';
+
+  /** Shift start times, local server time, HH:MM separated by commas; each shift runs to the next start */
+  @IsOptional() @IsString()
+  @Matches(/^(?!.*\b(\d\d:\d\d)\b.*\b\1\b)\s*(?:[01]\d|2[0-3]):[0-5]\d(?:\s*,\s*(?:[01]\d|2[0-3]):[0-5]\d)*\s*$/, {
+    message: 'SHIFT_STARTS must be times of day written HH:MM (00:00 to 23:59), separated by commas, each listed once (e.g. 06:00,14:00,22:00)',
+  })
+  SHIFT_STARTS: string = '06:00,14:00,22:00';
 }
 
 export function validateEnv(raw: Record<string, unknown>): EnvironmentVariables {

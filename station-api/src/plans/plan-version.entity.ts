@@ -1,4 +1,4 @@
-import { Entity, Enum, Index, ManyToOne, Property, Unique } from '@mikro-orm/core';
+import { BeforeUpdate, Entity, Enum, type EventArgs, Index, ManyToOne, Property, Unique } from '@mikro-orm/core';
 import { BaseEntity } from '../common/base.entity';
 import { User } from '../users/user.entity';
 import { TestPlan } from './test-plan.entity';
@@ -52,4 +52,37 @@ export class PlanVersion extends BaseEntity {
 
   @Property({ nullable: true })
   releasedAt?: Date;
+
+  /**
+   * A released version is never changed: once a version has left the draft state only its state may move on,
+   * and only released → superseded. Checked here so that no code path (API, engine, seeder) can slip past it.
+   */
+  @BeforeUpdate()
+  protected refuseChangeAfterRelease(args: EventArgs<PlanVersion>): void {
+    const original = args.changeSet?.originalEntity as { state?: PlanVersionState } | undefined;
+    if (!original?.state || original.state === PlanVersionState.Draft) return;
+    const payload = (args.changeSet?.payload ?? {}) as Record<string, unknown>;
+    const changed = Object.keys(payload).filter((k) => FROZEN_AFTER_RELEASE.has(k));
+    const badMove = 'state' in payload && !(original.state === PlanVersionState.Released && payload.state === PlanVersionState.Superseded);
+    if (changed.length > 0 || badMove) {
+      throw new Error(
+        `Plan version ${this.version} is ${original.state} and cannot change (${[...changed, ...(badMove ? ['state'] : [])].join(', ')}); create a new version instead.`,
+      );
+    }
+  }
 }
+
+/** Fields fixed once a version is released (state and the timestamps of the base entity may still move). */
+const FROZEN_AFTER_RELEASE = new Set([
+  'plan',
+  'version',
+  'reason',
+  'stopAtFirstFailure',
+  'maxAttempts',
+  'steps',
+  'checksum',
+  'sourceFile',
+  'createdBy',
+  'releasedBy',
+  'releasedAt',
+]);

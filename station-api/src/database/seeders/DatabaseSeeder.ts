@@ -1,7 +1,17 @@
 import type { EntityManager } from '@mikro-orm/core';
 import { Seeder } from '@mikro-orm/seeder';
+import { DemoPlantSeeder } from './DemoPlantSeeder';
+import { PlanSeeder } from './PlanSeeder';
 
-/** Demo data; filled in by the seeding work. Idempotent. */
+/**
+ * Demo data, in order: plant master data, released test plans, then test history. Every seeder is
+ * idempotent, so the whole chain can run on every start.
+ */
 export class DatabaseSeeder extends Seeder {
-  async run(_em: EntityManager): Promise<void> {}
+  async run(em: EntityManager): Promise<void> {
+    await this.call(em, [DemoPlantSeeder]);
+    // Next seeders go here, in this order (add each line once its file exists):
+    await this.call(em, [PlanSeeder]); // released plan versions from test-plans/
+    //   if (loadEnv().SEED_HISTORY === '1') await this.call(em, [HistorySeeder]);   // SEED_HISTORY=0 skips it (e2e tests)
+  }
 }

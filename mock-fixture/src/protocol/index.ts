@@ -1,0 +1,3 @@
+export * from './fixture-simulator';
+export * from './line-session';
+export * from './scpi';

@@ -1,0 +1,6 @@
+export * from './efficiency';
+export * from './regulation';
+export * from './ripple';
+export * from './transient';
+export * from './acceptance';
+export * from './buck';

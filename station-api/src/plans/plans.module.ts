@@ -1,0 +1,11 @@
+import { Module } from '@nestjs/common';
+import { PlansController } from './plans.controller';
+import { PlansService } from './plans.service';
+
+/** Test plans and their versions. Exports PlansService (the run engine asks it for a product's released version). */
+@Module({
+  controllers: [PlansController],
+  providers: [PlansService],
+  exports: [PlansService],
+})
+export class PlansModule {}

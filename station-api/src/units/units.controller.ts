@@ -1,0 +1,22 @@
+import { Controller, Get, Param } from '@nestjs/common';
+import { ApiBearerAuth, ApiNotFoundResponse, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import { Roles } from '../common/decorators/roles.decorator';
+import { ROLES } from '../users/user.entity';
+import { UnitDto } from './dto/unit.dto';
+import { UnitsService } from './units.service';
+
+@ApiTags('units')
+@ApiBearerAuth()
+@Controller('units')
+export class UnitsController {
+  constructor(private readonly units: UnitsService) {}
+
+  @Get(':serial')
+  @Roles(...ROLES)
+  @ApiOperation({ summary: 'A unit by serial, with its lot and product' })
+  @ApiOkResponse({ type: UnitDto })
+  @ApiNotFoundResponse({ description: 'details.code = unknown_serial' })
+  get(@Param('serial') serial: string): Promise<UnitDto> {
+    return this.units.getBySerial(serial);
+  }
+}

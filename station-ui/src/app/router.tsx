@@ -1,0 +1,59 @@
+import type { QueryClient } from '@tanstack/react-query';
+import type { ComponentType } from 'react';
+import { createBrowserRouter, type RouteObject } from 'react-router';
+import { pages, paths } from '@/config/paths';
+import { setUnauthorizedHandler } from '@/lib/api-client';
+import { clearSession, sessionNotice } from '@/lib/auth';
+import { AppRoot } from './routes/app-root';
+import { RouteError } from './routes/route-error';
+
+type LazyModule = { default: ComponentType };
+
+/** Each screen is its own chunk: the operator's station does not download the admin screens. */
+const lazyPage = (load: () => Promise<LazyModule>) => async () => ({ Component: (await load()).default });
+
+export const routes: RouteObject[] = [
+  {
+    path: paths.signIn.path,
+    lazy: lazyPage(() => import('./routes/sign-in')),
+    errorElement: <RouteError />,
+  },
+  {
+    path: paths.home.path,
+    element: <AppRoot />,
+    errorElement: <RouteError />,
+    children: [
+      {
+        // Errors inside a page stay inside the shell, so navigation keeps working.
+        errorElement: <RouteError />,
+        children: [
+          { index: true, lazy: lazyPage(() => import('./routes/home')) },
+          { path: pages.station.path, lazy: lazyPage(() => import('./routes/station')) },
+          { path: pages.board.path, lazy: lazyPage(() => import('./routes/board')) },
+          { path: pages.plans.path, lazy: lazyPage(() => import('./routes/plans')) },
+          { path: pages.fixtures.path, lazy: lazyPage(() => import('./routes/fixtures')) },
+          { path: pages.lots.path, lazy: lazyPage(() => import('./routes/lots')) },
+          { path: pages.runs.path, lazy: lazyPage(() => import('./routes/runs')) },
+          { path: pages.quality.path, lazy: lazyPage(() => import('./routes/quality')) },
+          { path: pages.adminUsers.path, lazy: lazyPage(() => import('./routes/admin/users')) },
+          { path: pages.adminAudit.path, lazy: lazyPage(() => import('./routes/admin/audit')) },
+          { path: paths.notFound.path, lazy: lazyPage(() => import('./routes/not-found')) },
+        ],
+      },
+    ],
+  },
+];
+
+/** Builds the router and routes every 401 through it to the sign-in page, remembering the address. */
+export function createAppRouter(queryClient: QueryClient) {
+  const router = createBrowserRouter(routes);
+  setUnauthorizedHandler((error) => {
+    const { pathname, search } = router.state.location;
+    if (pathname === paths.signIn.path) return;
+    clearSession(queryClient);
+    // A deactivated account gets the server's explanation; an expired token needs none.
+    sessionNotice.set(error.code === 'account_deactivated' ? error.message : undefined);
+    void router.navigate(paths.signIn.href(pathname + search), { replace: true });
+  });
+  return router;
+}

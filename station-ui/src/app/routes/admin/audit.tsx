@@ -1,0 +1,5 @@
+import { AuditScreen } from '@/features/admin/components/audit-screen';
+
+export default function AdminAuditRoute() {
+  return <AuditScreen />;
+}

@@ -1,0 +1,5 @@
+import { UsersScreen } from '@/features/admin/components/users-screen';
+
+export default function AdminUsersRoute() {
+  return <UsersScreen />;
+}

@@ -1,0 +1,1 @@
+export { Figure, formatFigure, type FigureProps } from './figure';

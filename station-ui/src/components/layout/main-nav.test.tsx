@@ -1,0 +1,38 @@
+import { screen, within } from '@testing-library/react';
+import { describe, expect, it } from 'vitest';
+import type { Role } from '@/config/roles';
+import { makeUser, renderApp } from '@/testing/render';
+import { MainNav } from './main-nav';
+
+function linkNames(): string[] {
+  const nav = screen.getByRole('navigation', { name: 'Main' });
+  return within(nav)
+    .queryAllByRole('link')
+    .map((a) => a.textContent ?? '');
+}
+
+// Expected sets come from the task brief (role → navigation); order is the fixed order of config/paths.ts.
+const cases: [Role[], string[]][] = [
+  [['operator'], ['Station', 'Board']],
+  [['engineer'], ['Board', 'Plans', 'Fixtures', 'Lots', 'Runs']],
+  [['quality'], ['Board', 'Lots', 'Runs', 'Quality']],
+  [['admin'], ['Station', 'Board', 'Plans', 'Fixtures', 'Lots', 'Runs', 'Quality', 'Users', 'Audit log']],
+  [['operator', 'quality'], ['Station', 'Board', 'Lots', 'Runs', 'Quality']],
+  [['engineer', 'quality'], ['Board', 'Plans', 'Fixtures', 'Lots', 'Runs', 'Quality']],
+  [[], []],
+];
+
+describe('MainNav', () => {
+  it.each(cases)('roles %j see exactly %j', (roles, expected) => {
+    renderApp(<MainNav roles={roles} />, { signedInAs: makeUser(roles) });
+    expect(linkNames()).toEqual(expected);
+  });
+
+  it('points each link at its page and marks the current one', () => {
+    renderApp(<MainNav roles={['engineer']} />, { route: '/lots/LB-2648-03', signedInAs: makeUser(['engineer']) });
+    const lots = screen.getByRole('link', { name: 'Lots' });
+    expect(lots).toHaveAttribute('href', '/lots');
+    expect(lots).toHaveAttribute('data-active');
+    expect(screen.getByRole('link', { name: 'Plans' })).not.toHaveAttribute('data-active');
+  });
+});

@@ -1,0 +1,2 @@
+export { VerdictBadge, type VerdictBadgeProps, type VerdictBadgeSize } from './verdict-badge';
+export { VerdictShape } from './verdict-shape';

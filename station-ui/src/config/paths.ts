@@ -1,0 +1,96 @@
+import { matchPath } from 'react-router';
+import type { Role } from './roles';
+
+/**
+ * A page people reach from the navigation. `roles` lists who may open it; admin is added to every
+ * page because an administrator sees everything.
+ */
+export interface PageDef {
+  readonly path: string;
+  readonly label: string;
+  readonly roles: readonly Role[];
+  readonly group: NavGroup;
+  readonly href: () => string;
+}
+
+export type NavGroup = 'floor' | 'engineering' | 'quality' | 'admin';
+
+export const navGroupLabels: Record<NavGroup, string> = {
+  floor: 'Test floor',
+  engineering: 'Engineering',
+  quality: 'Quality',
+  admin: 'Administration',
+};
+
+function page(path: string, label: string, group: NavGroup, roles: readonly Role[]): PageDef {
+  const withAdmin: readonly Role[] = roles.includes('admin') ? roles : [...roles, 'admin'];
+  return { path, label, group, roles: withAdmin, href: () => path };
+}
+
+/**
+ * Every page in the app, in navigation order. Only this file writes URL strings; everything else
+ * asks it for them.
+ */
+export const pages = {
+  station: page('/station', 'Station', 'floor', ['operator']),
+  board: page('/board', 'Board', 'floor', ['operator', 'engineer', 'quality']),
+  plans: page('/plans', 'Plans', 'engineering', ['engineer']),
+  fixtures: page('/fixtures', 'Fixtures', 'engineering', ['engineer']),
+  lots: page('/lots', 'Lots', 'engineering', ['engineer', 'quality']),
+  runs: page('/runs', 'Runs', 'engineering', ['engineer', 'quality']),
+  quality: page('/quality', 'Quality', 'quality', ['quality']),
+  adminUsers: page('/admin/users', 'Users', 'admin', ['admin']),
+  adminAudit: page('/admin/audit', 'Audit log', 'admin', ['admin']),
+} as const satisfies Record<string, PageDef>;
+
+export type PageKey = keyof typeof pages;
+
+export const pageList: readonly PageDef[] = Object.values(pages);
+
+/** Pages that are not in the navigation. */
+export const paths = {
+  home: { path: '/', href: () => '/' },
+  signIn: {
+    path: '/sign-in',
+    /** `next` is the address to return to after signing in. */
+    href: (next?: string | null) => (next && next !== '/' ? `/sign-in?next=${encodeURIComponent(next)}` : '/sign-in'),
+  },
+  notFound: { path: '*' },
+} as const;
+
+/** The page (and so the allowed roles) an address belongs to, if any. */
+export function pageForPathname(pathname: string): PageDef | undefined {
+  return pageList.find((p) => matchPath({ path: p.path, end: false }, pathname) !== null);
+}
+
+/**
+ * Accepts only an address inside this app as a return target, so a crafted sign-in link cannot send
+ * people to another site after they sign in.
+ */
+export function safeNextPath(next: string | null | undefined): string | null {
+  if (!next || !next.startsWith('/') || next.startsWith('//') || next.startsWith('/\\')) return null;
+  if (next.startsWith(paths.signIn.path)) return null;
+  return next;
+}
+
+/** Where the API lives, relative to the page (the dev server proxies it; production serves both). */
+export const apiBase = '/api';
+
+export const apiPaths = {
+  login: '/auth/login',
+  me: '/auth/me',
+  users: '/users',
+  user: (id: number) => `/users/${id}`,
+  userPassword: (id: number) => `/users/${id}/password`,
+  audit: '/audit',
+  // the operator station and the board (docs/architecture.md, "Runs: REST and live events")
+  stations: '/stations',
+  stationStatus: (id: number) => `/stations/${id}/status`,
+  stationScan: (id: number) => `/stations/${id}/scan`,
+  stationRuns: (id: number) => `/stations/${id}/runs`,
+  stationShiftSummary: (id: number) => `/stations/${id}/shift-summary`,
+  run: (id: number) => `/runs/${id}`,
+  runAbort: (id: number) => `/runs/${id}/abort`,
+  runRepairTag: (id: number) => `/runs/${id}/repair-tag.pdf`,
+  board: '/board',
+} as const;

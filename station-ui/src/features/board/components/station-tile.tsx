@@ -1,0 +1,79 @@
+import { Progress } from '@mantine/core';
+import { formatFigure } from '@/components/figure';
+import { StationStateMark } from '@/components/station-state';
+import type { BoardStation } from '../api/get-board';
+import classes from './board.module.css';
+import { RecentVerdicts } from './recent-verdicts';
+
+/** One station on the wall board: state first, then what it is doing, then how the shift goes. */
+export function StationTile({ tile }: { tile: BoardStation }) {
+  const { station, state, reasons, activeLot, currentRun, lastRuns, shift } = tile;
+  const alert = state === 'fault' || state === 'blocked';
+  return (
+    <article className={classes.tile} data-state={state} aria-label={`Station ${station.code}`} data-testid={`tile-${station.code}`}>
+      <header className={classes.tileHead}>
+        <span className={classes.tileCode}>{station.code}</span>
+        <span className={classes.tileName}>{station.name}</span>
+      </header>
+      <StationStateMark state={state} sizePx={34} solid />
+      {alert && (
+        <ul className={classes.alert} data-state={state} role="alert">
+          {(reasons.length > 0 ? reasons : ['The station cannot test now.']).map((r) => (
+            <li key={r}>{r}</li>
+          ))}
+        </ul>
+      )}
+      <div className={classes.lotLine}>
+        {activeLot ? (
+          <>
+            <span className={classes.label}>Lot</span> <span className={classes.mono}>{activeLot.code}</span>
+            <span className={classes.label}> · </span>
+            <span className={classes.mono}>{activeLot.partNumber}</span>
+          </>
+        ) : (
+          <span className={classes.muted}>No lot assigned</span>
+        )}
+      </div>
+      <div className={classes.current} data-testid={`current-${station.code}`}>
+        {currentRun ? (
+          <>
+            <div className={classes.currentSerial}>{currentRun.serial}</div>
+            <div className={classes.currentStep}>
+              Step {Math.min(currentRun.stepIndex + 1, currentRun.stepCount)} of {currentRun.stepCount}: {currentRun.stepName}
+            </div>
+            <Progress
+              value={currentRun.stepCount > 0 ? (currentRun.stepIndex / currentRun.stepCount) * 100 : 0}
+              size={14}
+              color="copper"
+              aria-label="Progress of the unit under test"
+            />
+          </>
+        ) : (
+          <div className={classes.muted}>No unit under test</div>
+        )}
+      </div>
+      <div className={classes.recentBlock}>
+        <span className={classes.label}>Last units</span>
+        <RecentVerdicts runs={lastRuns} />
+      </div>
+      <footer className={classes.shift}>
+        <div className={classes.shiftFigure}>
+          <span className={classes.shiftValue} data-testid={`fpy-${station.code}`}>
+            {shift?.firstPassYieldPct === null || shift?.firstPassYieldPct === undefined ? '—' : `${formatFigure(shift.firstPassYieldPct, 1)}%`}
+          </span>
+          <span className={classes.label}>first-pass yield</span>
+        </div>
+        <div className={classes.shiftFigure}>
+          <span className={classes.shiftValue} data-testid={`tested-${station.code}`}>
+            {shift ? shift.tested : '—'}
+          </span>
+          <span className={classes.label}>tested{shift?.shiftName ? ` · ${shift.shiftName}` : ''}</span>
+        </div>
+        <div className={classes.shiftFigure}>
+          <span className={classes.shiftValue}>{shift ? shift.failed : '—'}</span>
+          <span className={classes.label}>failed</span>
+        </div>
+      </footer>
+    </article>
+  );
+}

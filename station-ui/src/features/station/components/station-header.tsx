@@ -1,0 +1,53 @@
+import { Button } from '@mantine/core';
+import { IconVolume, IconVolumeOff } from '@tabler/icons-react';
+import { StationStateMark } from '@/components/station-state';
+import type { StationStatus } from '../api/get-station-status';
+import classes from './station-screen.module.css';
+
+export interface StationHeaderProps {
+  status: StationStatus | undefined;
+  muted: boolean;
+  onToggleMuted: () => void;
+  onChangeStation: () => void;
+}
+
+/** Which station this is, its state in words, the lot it runs; sound and station switches. */
+export function StationHeader({ status, muted, onToggleMuted, onChangeStation }: StationHeaderProps) {
+  return (
+    <header className={classes.header}>
+      <div className={classes.headerStation}>
+        <span className={classes.stationCode} data-testid="station-code">
+          {status?.stationCode ?? '…'}
+        </span>
+        <span className={classes.stationName}>{status?.stationName}</span>
+      </div>
+      {status && <StationStateMark state={status.state} sizePx={22} />}
+      <div className={classes.headerLot} data-testid="active-lot">
+        {status?.activeLot ? (
+          <>
+            <span className={classes.headerLabel}>Lot</span>
+            <span className={classes.headerFigure}>{status.activeLot.code}</span>
+            <span className={classes.headerLabel}>Part</span>
+            <span className={classes.headerFigure}>{status.activeLot.partNumber}</span>
+          </>
+        ) : (
+          <span className={classes.headerLabel}>No lot assigned</span>
+        )}
+      </div>
+      <div className={classes.headerActions}>
+        <Button
+          variant="default"
+          size="md"
+          onClick={onToggleMuted}
+          aria-pressed={muted}
+          leftSection={muted ? <IconVolumeOff size={20} aria-hidden /> : <IconVolume size={20} aria-hidden />}
+        >
+          {muted ? 'Sound off' : 'Sound on'}
+        </Button>
+        <Button variant="default" size="md" onClick={onChangeStation}>
+          Change station
+        </Button>
+      </div>
+    </header>
+  );
+}

@@ -1,0 +1,282 @@
+import { act, screen, waitFor, within } from '@testing-library/react';
+import type { MeasurementJudgedPayload, RunFinishedPayload, RunStartedPayload, StationStatePayload } from '@station-events';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { jsonResponse, makeUser, renderApp } from '@/testing/render';
+import { measurementFor, sampleRun, sampleSteps, sampleUnit } from '../test-data';
+import { StationScreen } from './station-screen';
+
+/** A stand-in for the socket.io client: records what the screen sends, lets the test play server events. */
+class FakeSocket {
+  handlers = new Map<string, ((...args: unknown[]) => void)[]>();
+  sent: { event: string; body: unknown }[] = [];
+  on(event: string, fn: (...args: unknown[]) => void) {
+    this.handlers.set(event, [...(this.handlers.get(event) ?? []), fn]);
+    return this;
+  }
+  emit(event: string, body: unknown, ack?: (a: unknown) => void) {
+    this.sent.push({ event, body });
+    ack?.({ ok: true, room: `station:${(body as { stationId?: number }).stationId}` });
+    return this;
+  }
+  fire(event: string, ...args: unknown[]) {
+    for (const fn of this.handlers.get(event) ?? []) fn(...args);
+  }
+  removeAllListeners() {
+    this.handlers.clear();
+    return this;
+  }
+  disconnect() {
+    return this;
+  }
+}
+
+const sockets: FakeSocket[] = [];
+vi.mock('@/lib/socket', () => ({
+  connectLive: () => {
+    const s = new FakeSocket();
+    sockets.push(s);
+    return s;
+  },
+}));
+
+const station = {
+  id: 1,
+  code: 'EOL-1',
+  name: 'End-of-line 1',
+  location: 'Line B',
+  active: true,
+  fixture: { id: 1, code: 'FX-101' },
+  activeLot: { id: 6, code: 'LB-2648-01', partNumber: 'OB-BK0503' },
+  state: 'ready',
+  reasons: [],
+};
+const status = {
+  stationId: 1,
+  stationCode: 'EOL-1',
+  stationName: 'End-of-line 1',
+  state: 'ready',
+  reasons: [],
+  fixture: { id: 1, code: 'FX-101', calibrationDueAt: '2027-01-01T00:00:00.000Z', contactCyclesUsed: 10, contactCyclesAllowed: 50000 },
+  activeLot: { id: 6, code: 'LB-2648-01', partNumber: 'OB-BK0503', state: 'open' },
+};
+const shift = {
+  stationId: 1,
+  shiftName: 'Early',
+  shiftStart: '2026-11-26T06:00:00.000Z',
+  shiftEnd: '2026-11-26T14:00:00.000Z',
+  tested: 12,
+  passed: 11,
+  failed: 1,
+  errors: 0,
+  aborted: 0,
+  firstPassYieldPct: 91.66666,
+  unitsPerHour: 24.2,
+};
+const scanResult = {
+  unit: sampleUnit,
+  lot: { id: 6, code: 'LB-2648-01', state: 'open' },
+  product: { id: 1, partNumber: 'OB-BK0503', name: 'Buck module 12 V to 5 V, 3 A', vinNomV: 12, voutNomV: 5, ioutRatedA: 3 },
+  attempt: 1,
+  plan: { versionId: 1, code: 'EOL-BK0503', name: 'End-of-line test', version: 1, stopAtFirstFailure: false, maxAttempts: 3, steps: sampleSteps },
+};
+
+interface Call {
+  method: string;
+  path: string;
+  body: unknown;
+}
+
+let calls: Call[];
+let now: number;
+
+function serve() {
+  calls = [];
+  vi.stubGlobal(
+    'fetch',
+    vi.fn(async (url: string, init?: RequestInit) => {
+      const path = new URL(url, 'http://localhost').pathname;
+      const method = init?.method ?? 'GET';
+      const body = init?.body ? JSON.parse(String(init.body)) : undefined;
+      calls.push({ method, path, body });
+      if (method === 'GET' && path === '/api/stations') return jsonResponse(200, [station]);
+      if (method === 'GET' && path === '/api/stations/1/status') return jsonResponse(200, status);
+      if (method === 'GET' && path === '/api/stations/1/shift-summary') return jsonResponse(200, shift);
+      if (method === 'POST' && path === '/api/stations/1/scan') {
+        const serial = (body as { serial: string }).serial;
+        if (serial === 'K5A-2648-00017') return jsonResponse(200, scanResult);
+        if (serial === 'K5A-2647-00005') {
+          return jsonResponse(409, {
+            statusCode: 409,
+            error: 'Conflict',
+            message: 'x',
+            details: { code: 'wrong_lot', unitLot: 'LB-2647-02', activeLot: 'LB-2648-01' },
+          });
+        }
+        return jsonResponse(404, { statusCode: 404, error: 'Not Found', message: 'x', details: { code: 'unknown_serial' } });
+      }
+      if (method === 'POST' && path === '/api/stations/1/runs') return jsonResponse(201, { run: sampleRun });
+      if (method === 'POST' && path === '/api/runs/41/abort') return jsonResponse(200, { runId: 41, verdict: 'aborted' });
+      return jsonResponse(404, { statusCode: 404, error: 'Not Found', message: `no route ${method} ${path}` });
+    }),
+  );
+}
+
+const live = () => sockets[sockets.length - 1]!;
+const fire = (event: string, payload: unknown) =>
+  act(async () => {
+    live().fire(event, payload);
+    await new Promise((r) => setTimeout(r, 0));
+  });
+
+async function openStation() {
+  window.localStorage.setItem('railwright.station.id', '1');
+  const r = renderApp(<StationScreen />, { route: '/station', signedInAs: makeUser(['operator']) });
+  const field = await screen.findByRole('textbox', { name: 'Serial' });
+  await screen.findByTestId('ready-prompt');
+  await waitFor(() => expect(field).toHaveFocus());
+  return { ...r, field };
+}
+
+describe('StationScreen', () => {
+  beforeEach(() => {
+    sockets.length = 0;
+    serve();
+    now = 100_000;
+    // the safety prompt ignores keys in its first moments; the test moves this clock past that
+    vi.spyOn(performance, 'now').mockImplementation(() => now);
+  });
+  afterEach(() => {
+    vi.unstubAllGlobals();
+  });
+
+  it('asks which station this is the first time, and remembers the answer', async () => {
+    const { user } = renderApp(<StationScreen />, { route: '/station', signedInAs: makeUser(['operator']) });
+    await screen.findByRole('heading', { name: 'Which station is this?' });
+    await user.click(await screen.findByRole('listitem', { name: /EOL-1/ }));
+    expect(window.localStorage.getItem('railwright.station.id')).toBe('1');
+    expect(await screen.findByTestId('station-code')).toHaveTextContent('EOL-1');
+    expect(screen.getByTestId('active-lot')).toHaveTextContent('LB-2648-01');
+    await fire('connect', undefined);
+    expect(live().sent).toContainEqual({ event: 'station:join', body: { stationId: 1 } });
+  });
+
+  it('shows the shift counters of this station', async () => {
+    await openStation();
+    expect(await screen.findByTestId('shift-tested')).toHaveTextContent('12');
+    expect(screen.getByTestId('shift-fpy')).toHaveTextContent('91.7 %');
+  });
+
+  it('an unknown serial is refused in plain words, starts nothing, and the field keeps focus', async () => {
+    const { user, field } = await openStation();
+    await user.type(field, 'K5A-2648-99999{Enter}');
+    const refusal = await screen.findByTestId('refusal');
+    expect(refusal).toHaveTextContent('Unknown serial');
+    expect(refusal).toHaveTextContent('K5A-2648-99999 is not registered');
+    expect(calls.some((c) => c.path === '/api/stations/1/runs')).toBe(false);
+    expect(screen.queryByRole('dialog')).toBeNull();
+    await waitFor(() => expect(field).toHaveFocus());
+    expect(field).toHaveValue('');
+  });
+
+  it("a unit of another lot is refused naming both lots", async () => {
+    const { user, field } = await openStation();
+    await user.type(field, 'K5A-2647-00005{Enter}');
+    expect(await screen.findByTestId('refusal')).toHaveTextContent('belongs to lot LB-2647-02, but this station is testing lot LB-2648-01');
+  });
+
+  it('Esc on the safety prompt cancels: no power, focus back on the scan field', async () => {
+    const { user, field } = await openStation();
+    await user.type(field, 'K5A-2648-00017{Enter}');
+    const dialog = await screen.findByRole('dialog', { name: 'Before power is applied' });
+    now += 1_000;
+    await user.keyboard('{Escape}');
+    await waitFor(() => expect(dialog).not.toBeInTheDocument());
+    await waitFor(() => expect(field).toHaveFocus());
+    expect(calls.some((c) => c.path === '/api/stations/1/runs')).toBe(false);
+  });
+
+  it('scan → Enter on the prompt → steps stream in → FAIL with the failing value and the repair tag', async () => {
+    const { user, field } = await openStation();
+    await user.type(field, 'K5A-2648-00017{Enter}');
+    await screen.findByRole('dialog', { name: 'Before power is applied' });
+    await waitFor(() => expect(screen.getByRole('button', { name: /Apply power and test/ })).toHaveFocus());
+    now += 1_000;
+    await user.keyboard('{Enter}');
+    await waitFor(() => expect(calls).toContainEqual({ method: 'POST', path: '/api/stations/1/runs', body: { serial: 'K5A-2648-00017', safetyConfirmed: true } }));
+    await waitFor(() => expect(field).toHaveFocus());
+
+    const started: RunStartedPayload = { stationId: 1, emittedAt: Date.now(), run: sampleRun, unit: sampleUnit, steps: sampleSteps };
+    await fire('run:started', started);
+    const table = await screen.findByRole('table', { name: 'Test steps' });
+    expect(within(table).getAllByRole('row')).toHaveLength(6);
+    expect(screen.getByTestId('testing-serial')).toHaveTextContent('K5A-2648-00017');
+
+    await fire('step:started', { stationId: 1, emittedAt: Date.now(), runId: 41, stepKey: 'iin-no-load', stepIndex: 0 });
+    expect(screen.getByText(/Step 1 of 3/)).toBeInTheDocument();
+    const ok = measurementFor(0, 'iinNoLoadMa', 8.1);
+    await fire('measurement:judged', { stationId: 1, emittedAt: Date.now(), runId: 41, stepKey: ok.stepKey, measurement: ok } satisfies MeasurementJudgedPayload);
+    const bad = measurementFor(1, 'voutV@3', 4.612, 'fail');
+    await fire('measurement:judged', { stationId: 1, emittedAt: Date.now(), runId: 41, stepKey: bad.stepKey, measurement: bad } satisfies MeasurementJudgedPayload);
+    expect(screen.getByTestId('row-vout-load|voutV@3')).toHaveTextContent('4.612V');
+
+    const finished: RunFinishedPayload = {
+      stationId: 1,
+      emittedAt: Date.now(),
+      runId: 41,
+      verdict: 'fail',
+      failedStepKey: 'vout-load',
+      failures: [bad],
+      durationMs: 8_400,
+      unit: { ...sampleUnit, state: 'failed', testCount: 1 },
+    };
+    await fire('run:finished', finished);
+    const verdict = await screen.findByTestId('verdict');
+    expect(within(verdict).getByTestId('verdict-word')).toHaveTextContent('FAIL');
+    expect(verdict).toHaveTextContent('Output voltage at 3 A: 4.612 V, limits 4.900 … 5.100 V');
+    expect(verdict).toHaveTextContent('repair queue');
+    expect(within(verdict).getByRole('button', { name: /Print repair tag/ })).toBeInTheDocument();
+    await waitFor(() => expect(field).toHaveFocus());
+    // the shift counters are asked again after a verdict
+    await waitFor(() => expect(calls.filter((c) => c.path === '/api/stations/1/shift-summary').length).toBeGreaterThan(1));
+
+    // the verdict stays until the next scan
+    await user.type(field, 'K5A-2648-99999{Enter}');
+    await screen.findByTestId('refusal');
+    expect(screen.queryByTestId('verdict')).toBeNull();
+  });
+
+  it('Esc twice stops a running test', async () => {
+    const { user, field } = await openStation();
+    await user.type(field, 'K5A-2648-00017{Enter}');
+    await screen.findByRole('dialog', { name: 'Before power is applied' });
+    now += 1_000;
+    await user.keyboard('{Enter}');
+    await fire('run:started', { stationId: 1, emittedAt: Date.now(), run: sampleRun, unit: sampleUnit, steps: sampleSteps });
+    await screen.findByTestId('testing-serial');
+    await user.keyboard('{Escape}');
+    expect(await screen.findByTestId('abort-confirm')).toHaveTextContent('again to stop the test');
+    expect(calls.some((c) => c.path === '/api/runs/41/abort')).toBe(false);
+    await user.keyboard('{Escape}');
+    await waitFor(() => expect(calls.some((c) => c.method === 'POST' && c.path === '/api/runs/41/abort')).toBe(true));
+    await fire('run:finished', { stationId: 1, emittedAt: Date.now(), runId: 41, verdict: 'aborted', failures: [], errorMessage: 'Aborted by the operator', durationMs: 900, unit: sampleUnit });
+    expect(await screen.findByTestId('verdict-word')).toHaveTextContent('STOPPED');
+    expect(screen.getByTestId('verdict')).toHaveTextContent('Unit not judged — test it again.');
+  });
+
+  it('says so when the live link drops, and clears it once back', async () => {
+    await openStation();
+    await fire('disconnect', 'transport close');
+    expect(await screen.findByTestId('live-link-banner')).toHaveTextContent('Live link lost — reconnecting');
+    await fire('connect', undefined);
+    await waitFor(() => expect(screen.queryByTestId('live-link-banner')).toBeNull());
+  });
+
+  it('shows the blocking reasons of a blocked station from the live state', async () => {
+    await openStation();
+    const blocked: StationStatePayload = { stationId: 1, emittedAt: Date.now(), state: 'blocked', reasons: ['Calibration of FX-101 overdue since 3 Nov'] };
+    await fire('station:state', blocked);
+    const panel = await screen.findByTestId('not-ready');
+    expect(panel).toHaveTextContent('BLOCKED');
+    expect(panel).toHaveTextContent('Calibration of FX-101 overdue since 3 Nov');
+  });
+});

@@ -1,0 +1,144 @@
+import type { LimitView, MeasurementView, StepOutline } from '@station-events';
+import { useLayoutEffect } from 'react';
+import { VerdictBadge } from '@/components/verdict';
+import { formatLimits, formatValue, guardDiffers } from '../format';
+import { limitStatus, measurementKey, stepStatus, type LiveRun, type StepStatus } from '../live-run';
+import { recordPaintLatency } from '../paint-latency';
+import classes from './step-list.module.css';
+
+interface MeasuredValueProps {
+  measurement: MeasurementView | undefined;
+  limit: LimitView;
+  emittedAtMs?: number;
+}
+
+/** The value cell: a dash until the value arrives, then the figure; its width never changes. */
+function MeasuredValue({ measurement, limit, emittedAtMs }: MeasuredValueProps) {
+  const id = measurement?.id;
+  useLayoutEffect(() => {
+    // once per judged value, after the commit that put it on screen
+    if (id !== undefined && emittedAtMs !== undefined) recordPaintLatency(emittedAtMs);
+  }, [id, emittedAtMs]);
+  const { text, unit } = formatValue(measurement?.value, limit.key, measurement?.unit ?? limit.unit);
+  return (
+    <span className={classes.value} data-figure data-measured={measurement ? 'yes' : 'no'}>
+      <span className={classes.number}>{text}</span>
+      <span className={classes.unit}>{unit}</span>
+    </span>
+  );
+}
+
+function ResultCell({ status }: { status: StepStatus }) {
+  switch (status) {
+    case 'pass':
+    case 'fail':
+    case 'guard_fail':
+      return <VerdictBadge verdict={status} size="lg" className={classes.badge} />;
+    case 'measuring':
+      return <span className={classes.measuring}>measuring…</span>;
+    case 'not_run':
+      return <span className={classes.pending}>not run</span>;
+    default:
+      return (
+        <span className={classes.pending} aria-label="waiting">
+          —
+        </span>
+      );
+  }
+}
+
+interface LimitRowProps {
+  live: LiveRun;
+  step: StepOutline;
+  stepIndex: number;
+  limit: LimitView;
+  first: boolean;
+}
+
+function LimitRow({ live, step, stepIndex, limit, first }: LimitRowProps) {
+  const key = measurementKey(step.key, limit.key);
+  const m = live.measurements[key];
+  const status = limitStatus(live, stepIndex, limit.key);
+  const low = m ? m.lowLimit : limit.low;
+  const high = m ? m.highLimit : limit.high;
+  const unit = m?.unit ?? limit.unit;
+  const showGuard = m ? guardDiffers(low, high, m.guardedLow, m.guardedHigh) : false;
+  const multi = step.limits.length > 1;
+  return (
+    <tr data-testid={`row-${key}`} data-status={status}>
+      <td className={classes.stepCell}>
+        {first ? (
+          <span className={classes.stepName} title={step.name}>
+            <span className={classes.stepNo}>{stepIndex + 1}</span>
+            {step.name}
+          </span>
+        ) : null}
+        {multi && (
+          <span className={classes.quantity} title={limit.name}>
+            {limit.name}
+          </span>
+        )}
+      </td>
+      <td className={classes.valueCell}>
+        <MeasuredValue measurement={m} limit={limit} emittedAtMs={live.emittedAtMs[key]} />
+      </td>
+      <td className={classes.limitCell}>
+        <span className={classes.spec}>{formatLimits(low, high, limit.key, unit)}</span>
+        {limit.rule === 'guarded' && (
+          // reserved even before the value arrives, so the row does not grow when it does
+          <span className={classes.guard} data-visible={showGuard ? 'yes' : 'no'}>
+            {showGuard && m ? `guard ${formatLimits(m.guardedLow, m.guardedHigh, limit.key, unit)}` : 'guard band'}
+          </span>
+        )}
+      </td>
+      <td className={classes.resultCell}>
+        <ResultCell status={status} />
+      </td>
+    </tr>
+  );
+}
+
+export interface StepListProps {
+  live: LiveRun;
+}
+
+/**
+ * The plan's steps, one row per judged quantity, laid out from the `run:started` outline before any
+ * value arrives. Fixed column widths and reserved lines mean a streamed value never moves anything.
+ */
+export function StepList({ live }: StepListProps) {
+  return (
+    <table className={classes.table} aria-label="Test steps">
+      <colgroup>
+        <col className={classes.colStep} />
+        <col className={classes.colValue} />
+        <col className={classes.colLimit} />
+        <col className={classes.colResult} />
+      </colgroup>
+      <thead>
+        <tr>
+          <th scope="col">Step</th>
+          <th scope="col" className={classes.right}>
+            Measured
+          </th>
+          <th scope="col">Limits</th>
+          <th scope="col">Result</th>
+        </tr>
+      </thead>
+      {live.steps.map((step, i) => (
+        <tbody
+          key={step.key}
+          className={classes.step}
+          data-step={step.key}
+          data-current={!live.finished && live.currentStepIndex === i ? 'yes' : 'no'}
+          data-status={stepStatus(live, i)}
+          aria-current={!live.finished && live.currentStepIndex === i ? 'step' : undefined}
+        >
+          {step.limits.map((limit, j) => (
+            <LimitRow key={limit.key} live={live} step={step} stepIndex={i} limit={limit} first={j === 0} />
+          ))}
+        </tbody>
+      ))}
+    </table>
+  );
+}

@@ -1,0 +1,73 @@
+import { describe, expect, it } from 'vitest';
+import { ApiError } from '@/lib/api-client';
+import { describeRefusal, type RefusalCode } from './refusal-messages';
+
+const refusal = (status: number, code: string, details: Record<string, unknown> = {}, message = 'server text') =>
+  new ApiError(status, 'Conflict', message, { code, ...details });
+
+const ctx = { serial: 'K5A-2648-00017', partNumber: 'OB-BK0503' };
+
+describe('describeRefusal', () => {
+  it('gives every refusal code of the contract its own headline', () => {
+    const codes: [RefusalCode, number][] = [
+      ['unknown_serial', 404],
+      ['pattern_mismatch', 422],
+      ['wrong_lot', 409],
+      ['already_passed', 409],
+      ['retest_limit', 409],
+      ['station_blocked', 409],
+      ['station_busy', 409],
+    ];
+    const titles = codes.map(([code, status]) => {
+      const m = describeRefusal(refusal(status, code), ctx);
+      expect(m.code).toBe(code);
+      return m.title;
+    });
+    expect(new Set(titles).size).toBe(codes.length);
+  });
+
+  it('unknown serial names the serial', () => {
+    const m = describeRefusal(refusal(404, 'unknown_serial'), ctx);
+    expect(m.title).toBe('Unknown serial');
+    expect(m.detail).toContain('K5A-2648-00017 is not registered');
+  });
+
+  it('pattern mismatch names the product the label should belong to', () => {
+    const m = describeRefusal(refusal(422, 'pattern_mismatch'), { serial: 'XYZ-1', partNumber: 'OB-BK0503' });
+    expect(m.detail).toContain('“XYZ-1”');
+    expect(m.detail).toContain('OB-BK0503');
+  });
+
+  it("wrong lot names the unit's lot and the station's lot", () => {
+    const m = describeRefusal(refusal(409, 'wrong_lot', { unitLot: 'LB-2647-02', activeLot: 'LB-2648-01' }), ctx);
+    expect(m.title).toBe('Wrong lot: set it aside');
+    expect(m.detail).toBe('K5A-2648-00017 belongs to lot LB-2647-02, but this station is testing lot LB-2648-01.');
+  });
+
+  it("already passed needs an engineer's override; an engineer is offered it", () => {
+    const op = describeRefusal(refusal(409, 'already_passed'), ctx);
+    expect(op.detail).toContain("needs an engineer's override");
+    expect(op.canOverride).toBe(false);
+    const eng = describeRefusal(refusal(409, 'already_passed'), { ...ctx, isEngineer: true });
+    expect(eng.canOverride).toBe(true);
+  });
+
+  it('retest limit says to send the unit to repair, with the counts', () => {
+    const m = describeRefusal(refusal(409, 'retest_limit', { testCount: 3, maxAttempts: 3 }), ctx);
+    expect(m.title).toContain('send it to repair');
+    expect(m.detail).toBe('K5A-2648-00017 has been tested 3 times; the plan allows 3. Send it to repair.');
+  });
+
+  it('station blocked lists the reasons; busy says to wait', () => {
+    const blocked = describeRefusal(refusal(409, 'station_blocked', { reasons: ['calibration of FX-101 overdue since 3 Nov'] }), ctx);
+    expect(blocked.detail).toBe('Nothing was powered: calibration of FX-101 overdue since 3 Nov.');
+    const busy = describeRefusal(refusal(409, 'station_busy'), ctx);
+    expect(busy.detail).toContain('Wait for its result');
+  });
+
+  it('a validation error, a lost server and an unknown failure still get plain words', () => {
+    expect(describeRefusal(new ApiError(400, 'Bad Request', 'serial must be shorter than or equal to 64 characters'), ctx).title).toBe('Scan not read');
+    expect(describeRefusal(new ApiError(0, 'Network Error', 'x'), ctx).title).toBe('Station server not reachable');
+    expect(describeRefusal(new Error('boom'), ctx).code).toBe('other');
+  });
+});
