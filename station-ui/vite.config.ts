@@ -17,5 +17,7 @@ export default defineConfig({
   build: {
     // Mantine's core bundle alone is above Vite's default 500 kB warning; routes are split lazily.
     chunkSizeWarningLimit: 900,
+    // dist/.vite/manifest.json: scripts/bundle-size.mjs reads which chunks each route loads
+    manifest: true,
   },
 });

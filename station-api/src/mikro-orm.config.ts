@@ -1,6 +1,6 @@
 import { Migrator } from '@mikro-orm/migrations';
 import { SeedManager } from '@mikro-orm/seeder';
-import { defineConfig, Options } from '@mikro-orm/sqlite';
+import { defineConfig, Options, SqliteDriver } from '@mikro-orm/sqlite';
 import { mkdirSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { loadEnv } from './config/env.validation';
@@ -10,6 +10,7 @@ import { ENTITIES } from './database/entities';
 export function createOrmConfig(dbPath: string, overrides: Partial<Options> = {}): Options {
   if (dbPath !== ':memory:') mkdirSync(dirname(dbPath), { recursive: true });
   return defineConfig({
+    driver: SqliteDriver,
     dbName: dbPath,
     entities: ENTITIES,
     extensions: [Migrator, SeedManager],

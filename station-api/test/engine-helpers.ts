@@ -5,6 +5,7 @@ import { FixtureLinkService } from '../src/fixtures/transport/fixture-link.servi
 import type { SimulatorHandle } from '../src/fixtures/transport/simulated-fixtures';
 import type { RunFinishedPayload, StationEventMap, StationEventName } from '../src/realtime/station-events';
 import { StationEventsPublisher } from '../src/realtime/station-events.publisher';
+import { RunEngineService } from '../src/runs/run-engine.service';
 import { Station } from '../src/stations/station.entity';
 import { Unit, UnitState } from '../src/units/unit.entity';
 import type { TestApp } from './create-test-app';
@@ -22,6 +23,10 @@ export class EngineHarness {
 
   get publisher(): StationEventsPublisher {
     return this.t.app.get(StationEventsPublisher);
+  }
+
+  get engine(): RunEngineService {
+    return this.t.app.get(RunEngineService);
   }
 
   get links(): FixtureLinkService {
@@ -47,8 +52,8 @@ export class EngineHarness {
   }
 
   /** Gives the station's simulated fixture a defect configuration (closes the link so it takes effect). */
-  async simulate(fixtureCode: string, config: SimulatorConfig): Promise<SimulatorHandle> {
-    return this.links.reconfigureSimulator(fixtureCode, config);
+  async simulate(fixtureCode: string, config: SimulatorConfig, timing: 'instant' | 'realistic' = 'instant'): Promise<SimulatorHandle> {
+    return this.links.reconfigureSimulator(fixtureCode, config, timing);
   }
 
   /** Changes a fixture's settings in the database and rebuilds its link (a fresh simulator with default defects). */

@@ -104,8 +104,8 @@ describe('run engine through the simulated fixture', () => {
     const serial = take();
     const sim = await h.simulate('FX-101', { defectRates: {}, serials: { [serial]: 'good' } });
     // the fixture goes quiet when the third step starts
-    const stop = h.publisher.subscribe((name, p) => {
-      if (name === 'step:started' && (p as { stepIndex: number }).stepIndex === 2) sim.mute = true;
+    const stop = h.engine.onStepStarting((_runId, _key, stepIndex) => {
+      if (stepIndex === 2) sim.mute = true;
     });
     try {
       const r = await h.run(stationId, serial);
@@ -122,6 +122,16 @@ describe('run engine through the simulated fixture', () => {
       expect([...new Set(detail.measurements.map((m: MeasurementView) => m.stepKey))]).toEqual(['iin-no-load', 'vout-no-load']);
       // an error does not count as a test of the unit
       expect(r.unit).toMatchObject({ state: 'untested', testCount: 0 });
+      // the station shows the fault until the fixture answers again
+      const status = await h.http().get(`/api/stations/${stationId}/status`).set('Authorization', `Bearer ${h.token}`).expect(200);
+      expect(status.body.state).toBe('fault');
+      expect(status.body.reasons).toEqual([r.errorMessage]);
+      stop();
+      sim.mute = false;
+      const next = await h.run(stationId, take());
+      expect(next.verdict).toBe('pass');
+      const cleared = await h.http().get(`/api/stations/${stationId}/status`).set('Authorization', `Bearer ${h.token}`).expect(200);
+      expect(cleared.body).toMatchObject({ state: 'ready', reasons: [] });
     } finally {
       stop();
       sim.mute = false;
@@ -131,15 +141,15 @@ describe('run engine through the simulated fixture', () => {
 
   it('aborts mid-run within one step, leaves the fixture safe and keeps the measurements taken', async () => {
     const serial = take();
-    const sim = await h.simulate('FX-101', { defectRates: {}, serials: { [serial]: 'good' } });
+    // realistic fixture timing (tenths of a second per step), so the abort request lands mid-run
+    const sim = await h.simulate('FX-101', { defectRates: {}, serials: { [serial]: 'good' } }, 'realistic');
     let abortStatus = 0;
     let aborting: Promise<unknown> | undefined;
-    const stop = h.publisher.subscribe((name, p) => {
-      const payload = p as { stepIndex?: number; runId?: number };
-      if (name === 'step:started' && payload.stepIndex === 3 && !aborting) {
+    const stop = h.engine.onStepStarting((runId, _key, stepIndex) => {
+      if (stepIndex === 3 && !aborting) {
         aborting = h
           .http()
-          .post(`/api/runs/${payload.runId}/abort`)
+          .post(`/api/runs/${runId}/abort`)
           .set('Authorization', `Bearer ${h.token}`)
           .then((res) => (abortStatus = res.status));
       }
@@ -160,6 +170,7 @@ describe('run engine through the simulated fixture', () => {
       expect(r.unit).toMatchObject({ state: 'untested', testCount: 0 });
     } finally {
       stop();
+      await h.simulate('FX-101', { defectRates: {} }, 'instant');
     }
   });
 

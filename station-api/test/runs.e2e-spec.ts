@@ -129,8 +129,8 @@ describe('runs REST', () => {
     const serial = take();
     const sim = await h.simulate('FX-101', { defectRates: {} });
     // a fixture that stops answering keeps the run busy for seconds
-    const stop = h.publisher.subscribe((name, p) => {
-      if (name === 'step:started' && (p as { stepIndex: number }).stepIndex === 1) sim.mute = true;
+    const stop = h.engine.onStepStarting((_runId, _key, stepIndex) => {
+      if (stepIndex === 1) sim.mute = true;
     });
     try {
       const start = await h.http().post(`/api/stations/${eol1}/runs`).set(auth()).send({ serial, safetyConfirmed: true }).expect(201);

@@ -83,6 +83,7 @@ describe('admin → users against the real server', () => {
       await row(page, 'j.okafor').getByText('Active', { exact: true }).waitFor();
       await fillSignIn(person.page, 'j.okafor', 'second-pass-2');
       await person.page.waitForURL('**/station');
+      await person.page.locator('nav[aria-label="Main"]').waitFor();
       expect(await navLinks(person.page)).toEqual(['Station', 'Board', 'Lots', 'Runs', 'Quality']);
     } finally {
       await admin.context.close();

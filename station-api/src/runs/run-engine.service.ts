@@ -1,5 +1,6 @@
+import { raw } from '@mikro-orm/core';
 import { EntityManager } from '@mikro-orm/sqlite';
-import { Injectable, Logger, OnApplicationBootstrap, OnApplicationShutdown, Optional } from '@nestjs/common';
+import { BeforeApplicationShutdown, Injectable, Logger, OnApplicationBootstrap, Optional } from '@nestjs/common';
 import { performance } from 'node:perf_hooks';
 import { AuditService } from '../audit/audit.service';
 import { Fixture } from '../fixtures/fixture.entity';
@@ -10,17 +11,18 @@ import { guardedLimits, judge } from '../measure/acceptance';
 import type { LimitSpec, PlanStep } from '../plans/plan-definition';
 import { PlanVersion } from '../plans/plan-version.entity';
 import { PlansService } from '../plans/plans.service';
-import type { StationStatePayload, StepOutline, UnitView } from '../realtime/station-events';
+import type { MeasurementView, RunView, StationStatePayload, StepOutline, UnitView } from '../realtime/station-events';
 import { StationEventsPublisher } from '../realtime/station-events.publisher';
 import { Station } from '../stations/station.entity';
 import { Unit, UnitState } from '../units/unit.entity';
 import type { Role } from '../users/user.entity';
 import { User } from '../users/user.entity';
 import { EngineClock, systemClock } from './engine-clock';
-import { Measurement, MeasurementVerdict } from './measurement.entity';
+import { MeasurementVerdict } from './measurement.entity';
+import { OrderedEvents } from './ordered-events';
 import { RunRefusal } from './run-refusal';
-import { toMeasurementView, toRunView, toUnitView } from './run-views';
-import { readiness } from './station-readiness';
+import { toUnitView } from './run-views';
+import { readiness, ReadinessInput } from './station-readiness';
 import { Quantity, quantityFor, runStep, stepProblems } from './step-runner';
 import { RunVerdict, TestRun } from './test-run.entity';
 
@@ -28,6 +30,8 @@ import { RunVerdict, TestRun } from './test-run.entity';
 export interface RunRequester {
   id: number;
   roles: Role[];
+  /** Shown on the run; looked up when not given */
+  displayName?: string;
 }
 
 export interface StartRunInput {
@@ -42,6 +46,8 @@ export interface StartRunInput {
   clock?: EngineClock;
   /** Write the safety confirmation to the audit trail (off for seeded history) */
   audit?: boolean;
+  /** Called as each step begins, before its first fixture command (benchmark instrumentation) */
+  onStepStarted?: (runId: number, stepKey: string, stepIndex: number) => void;
   /** Called after each step with its wall time (benchmark instrumentation) */
   onStepTimed?: (timing: StepTiming) => void;
 }
@@ -49,7 +55,7 @@ export interface StartRunInput {
 export interface StepTiming {
   runId: number;
   stepKey: string;
-  /** Wall time of the step including judging and storing its measurements, ms */
+  /** Wall time of the step: its fixture commands, judging, and issuing its measurements' writes, ms */
   wallMs: number;
 }
 
@@ -62,7 +68,7 @@ export interface RunOutcome {
 }
 
 export interface StartedRun {
-  run: ReturnType<typeof toRunView>;
+  run: RunView;
   /** Settles when the run has finished and everything is stored; never rejects */
   done: Promise<RunOutcome>;
 }
@@ -105,6 +111,12 @@ interface Assessed {
   retestOfPassed: boolean;
 }
 
+/** Column order of {@link RunEngineService.store}; names as the initial migration creates them. */
+const INSERT_MEASUREMENT =
+  'insert into `measurements` (`created_at`, `updated_at`, `run_id`, `step_index`, `step_key`, `step_name`, `quantity`, `name`, ' +
+  '`value`, `unit`, `low_limit`, `high_limit`, `guarded_low`, `guarded_high`, `uncertainty`, `rule`, `verdict`, `raw`, `started_at`, `measured_at`) ' +
+  'values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)';
+
 const NO_SAFE_STATE = 'the fixture did not confirm load off and source off — switch the fixture off by hand before opening it';
 
 /**
@@ -113,11 +125,15 @@ const NO_SAFE_STATE = 'the fixture did not confirm load off and source off — s
  * fixture safe whatever happens. One run per station at a time; each run uses its own EntityManager forks.
  */
 @Injectable()
-export class RunEngineService implements OnApplicationBootstrap, OnApplicationShutdown {
+export class RunEngineService implements OnApplicationBootstrap, BeforeApplicationShutdown {
   private readonly logger = new Logger(RunEngineService.name);
   private readonly active = new Map<number, ActiveRun>();
   /** Stations between "start requested" and "run row written": a second start is refused as busy */
   private readonly reserving = new Set<number>();
+  /** In-process observers of step starts (tests that act at a given step, instrumentation) */
+  private readonly stepListeners = new Set<(runId: number, stepKey: string, stepIndex: number) => void>();
+  /** State publications still under way (they query the database); awaited before shutdown */
+  private readonly background = new Set<Promise<unknown>>();
 
   constructor(
     private readonly em: EntityManager,
@@ -126,7 +142,7 @@ export class RunEngineService implements OnApplicationBootstrap, OnApplicationSh
     private readonly plans: PlansService,
     @Optional() private readonly audit?: AuditService,
   ) {
-    this.links.onFaultChange((fixtureId) => void this.publishStateForFixture(fixtureId));
+    this.links.onFaultChange((fixtureId) => this.track(this.publishStateForFixture(fixtureId)));
   }
 
   // ---- lifecycle --------------------------------------------------------------------------------
@@ -144,12 +160,36 @@ export class RunEngineService implements OnApplicationBootstrap, OnApplicationSh
     }
   }
 
-  /** Aborts running tests and waits for their safe state, so no fixture is left powered. */
-  async onApplicationShutdown(): Promise<void> {
+  /**
+   * Aborts running tests and waits for their safe state and their stored verdict, so no fixture is left
+   * powered. Before shutdown, not at it: the database closes in the shutdown hooks.
+   */
+  async beforeApplicationShutdown(): Promise<void> {
     const running = [...this.active.values()];
     for (const r of running) r.abort.abort();
     await Promise.race([Promise.all(running.map((r) => r.done)), new Promise((resolve) => setTimeout(resolve, 5000))]);
+    await this.idle();
     await this.links.shutdown();
+  }
+
+  /** Resolves once no state publication is under way (before closing the database). */
+  async idle(): Promise<void> {
+    while (this.background.size > 0) await Promise.allSettled([...this.background]);
+  }
+
+  private track(work: Promise<unknown>): void {
+    this.background.add(work);
+    void work.finally(() => this.background.delete(work));
+  }
+
+  /**
+   * Calls `listener` synchronously as each step of any run begins, before its first fixture command. (The
+   * `step:started` event itself may follow a little later: it waits for the previous step's writes.)
+   * @returns the function that stops listening
+   */
+  onStepStarting(listener: (runId: number, stepKey: string, stepIndex: number) => void): () => void {
+    this.stepListeners.add(listener);
+    return () => this.stepListeners.delete(listener);
   }
 
   // ---- queries ----------------------------------------------------------------------------------
@@ -362,74 +402,130 @@ export class RunEngineService implements OnApplicationBootstrap, OnApplicationSh
         identity = (await link.scpi.identify()).raw;
       } catch (err) {
         const msg = isFixtureFault(err) ? err.message : String(err);
-        void this.publishState(stationId);
+        this.track(this.publishState(stationId));
         throw new RunRefusal('station_blocked', `${msg}. Nothing was powered.`, { reasons: [msg] });
       }
 
-      const operator = em.getReference(User, input.requester.id);
-      a.fixture.contactCyclesUsed += 1;
-      const run = em.create(TestRun, {
-        unit: a.unit,
-        lot: a.unit.lot,
-        product: a.unit.product,
-        station: a.station,
-        fixture: a.fixture,
-        planVersion: a.plan,
-        operator,
-        attempt: a.attempt,
-        verdict: RunVerdict.Running,
-        startedAt: clock.now(),
-        fixtureIdentity: identity,
-        fixtureCalibrationDueAt: a.fixture.calibrationDueAt,
-        fixtureContactCycles: a.fixture.contactCyclesUsed,
-        ...(a.retestOfPassed ? { overrideReason: input.overrideReason!.trim(), overrideBy: operator } : {}),
-      }, { partial: true });
-      await em.flush();
+      const operatorName = input.requester.displayName ?? (await em.findOneOrFail(User, { id: input.requester.id })).displayName;
+      const startedAt = clock.now();
+      const cycles = a.fixture.contactCyclesUsed + 1;
+      const overrideReason = a.retestOfPassed ? input.overrideReason!.trim() : undefined;
+      const now = new Date();
+      // one transaction: the run row and the fixture's contact cycle (one per clamped unit) go in together.
+      // Native statements on a fresh fork: nothing else is flushed, and the cost stays two statements.
+      const runId = Number(
+        await this.em.fork().transactional(async (tx) => {
+          await tx.nativeUpdate(Fixture, { id: a.fixture.id }, { contactCyclesUsed: raw('contact_cycles_used + 1'), updatedAt: now } as never);
+          return tx.insert(TestRun, {
+            unit: a.unit.id,
+            lot: a.unit.lot.id,
+            product: a.unit.product.id,
+            station: a.station.id,
+            fixture: a.fixture.id,
+            planVersion: a.plan.id,
+            operator: input.requester.id,
+            attempt: a.attempt,
+            verdict: RunVerdict.Running,
+            startedAt,
+            fixtureIdentity: identity,
+            fixtureCalibrationDueAt: a.fixture.calibrationDueAt,
+            fixtureContactCycles: cycles,
+            overrideReason,
+            overrideBy: overrideReason ? input.requester.id : undefined,
+            createdAt: now,
+            updatedAt: now,
+          } as never);
+        }),
+      );
       if (input.audit !== false && this.audit) {
         await this.audit.record({
           actor: input.requester.id,
           action: 'run.safety_confirmed',
           entityType: 'test_run',
-          entityId: run.id,
+          entityId: runId,
           after: { stationId, serial: a.unit.serial, fixture: a.fixture.code },
         });
-        if (a.retestOfPassed) {
+        if (overrideReason) {
           await this.audit.record({
             actor: input.requester.id,
             action: 'run.retest_override',
             entityType: 'test_run',
-            entityId: run.id,
-            reason: input.overrideReason!.trim(),
+            entityId: runId,
+            reason: overrideReason,
             after: { serial: a.unit.serial, attempt: a.attempt },
           });
         }
       }
-      await em.populate(run, ['operator', 'overrideBy', 'planVersion.plan']);
-      const view = toRunView(run);
+      const view: RunView = {
+        id: runId,
+        stationId,
+        stationCode: a.station.code,
+        unitId: a.unit.id,
+        serial: a.unit.serial,
+        lotId: a.unit.lot.id,
+        lotCode: a.unit.lot.code,
+        productId: a.unit.product.id,
+        partNumber: a.unit.product.partNumber,
+        planVersionId: a.plan.id,
+        planCode: a.plan.plan.code,
+        planVersion: a.plan.version,
+        operatorId: input.requester.id,
+        operatorName,
+        fixtureId: a.fixture.id,
+        fixtureCode: a.fixture.code,
+        attempt: a.attempt,
+        verdict: 'running',
+        startedAt: startedAt.toISOString(),
+        finishedAt: null,
+        durationMs: null,
+        failedStepKey: null,
+        errorMessage: null,
+        fixtureIdentity: identity,
+        fixtureCalibrationDueAt: a.fixture.calibrationDueAt.toISOString(),
+        fixtureContactCycles: cycles,
+        overrideReason: overrideReason ?? null,
+        overrideByName: overrideReason ? operatorName : null,
+      };
       const abort = new AbortController();
-      const active: ActiveRun = { runId: run.id, serial: a.unit.serial, abort, done: Promise.resolve(undefined as never) };
+      const active: ActiveRun = { runId, serial: a.unit.serial, abort, done: Promise.resolve(undefined as never) };
       this.active.set(stationId, active);
       this.reserving.delete(stationId);
 
-      this.events.emit('station:state', { stationId, state: 'testing', reasons: [], currentRunId: run.id, currentSerial: a.unit.serial });
+      this.events.emit('station:state', { stationId, state: 'testing', reasons: [], currentRunId: runId, currentSerial: a.unit.serial });
       this.events.emit('run:started', { stationId, run: view, unit: toUnitView(a.unit), steps: outline(a.plan.steps) });
 
+      // what the station looked like at the start; its state after the run is worked out from this without a query
+      const lot = a.unit.lot;
+      const after: Omit<ReadinessInput, 'now'> = {
+        station: { code: a.station.code, active: a.station.active },
+        fixture: {
+          code: a.fixture.code,
+          active: a.fixture.active,
+          calibrationDueAt: a.fixture.calibrationDueAt,
+          contactCyclesUsed: cycles,
+          contactCyclesAllowed: a.fixture.contactCyclesAllowed,
+        },
+        lot: { code: lot.code, state: lot.state, holdReason: lot.holdReason, partNumber: a.unit.product.partNumber },
+        hasReleasedPlan: true,
+      };
       active.done = this.execute({
-        runId: run.id,
+        runId,
         stationId,
         link,
         clock,
         abort,
         steps: a.plan.steps,
         stopAtFirstFailure: a.plan.stopAtFirstFailure,
-        unit: { id: a.unit.id, serial: a.unit.serial, lotCode: a.unit.lot.code },
+        unit: { id: a.unit.id, serial: a.unit.serial, lotCode: lot.code, view: toUnitView(a.unit) },
         product: a.unit.product,
         fixture: { voltageUncertaintyV: a.fixture.voltageUncertaintyV },
-        startedAt: run.startedAt,
+        startedAt,
+        onStepStarted: input.onStepStarted,
         onStepTimed: input.onStepTimed,
       }).finally(() => {
         this.active.delete(stationId);
-        void this.publishState(stationId);
+        const r = readiness({ ...after, now: new Date(), fixtureFault: this.links.faultOf(a.fixture.id)?.message });
+        this.events.emit('station:state', { stationId, state: r.state, reasons: r.reasons });
       });
       return { run: view, done: active.done };
     } finally {
@@ -460,15 +556,17 @@ export class RunEngineService implements OnApplicationBootstrap, OnApplicationSh
     abort: AbortController;
     steps: PlanStep[];
     stopAtFirstFailure: boolean;
-    unit: { id: number; serial: string; lotCode: string };
+    unit: { id: number; serial: string; lotCode: string; view: UnitView };
     product: { partNumber: string; vinMinV: number; vinNomV: number; vinMaxV: number; voutNomV: number; ioutRatedA: number };
     fixture: { voltageUncertaintyV: number };
     startedAt: Date;
+    onStepStarted?: (runId: number, stepKey: string, stepIndex: number) => void;
     onStepTimed?: (t: StepTiming) => void;
   }): Promise<RunOutcome> {
     const { link, clock, runId, stationId } = ctx;
     const scpi = link.scpi;
-    const failures: ReturnType<typeof toMeasurementView>[] = [];
+    const failing: Promise<MeasurementView>[] = [];
+    const events = new OrderedEvents(this.events);
     let failedStepKey: string | undefined;
     let errorMessage: string | undefined;
     let verdict: RunOutcome['verdict'];
@@ -497,27 +595,31 @@ export class RunEngineService implements OnApplicationBootstrap, OnApplicationSh
       for (let i = 0; i < ctx.steps.length; i++) {
         const step = ctx.steps[i];
         if (ctx.abort.signal.aborted) throw new CommandAborted();
+        ctx.onStepStarted?.(runId, step.key, i);
+        for (const listener of this.stepListeners) listener(runId, step.key, i);
         const t0 = performance.now();
         const stepStartedAt = clock.now();
-        this.events.emit('step:started', { stationId, runId, stepKey: step.key, stepIndex: i });
+        events.emit('step:started', { stationId, runId, stepKey: step.key, stepIndex: i });
         const quantities = await runStep(step, stepCtx);
         await scpi.checkErrors(`step "${step.name}"`);
         linkIntact();
         let stepFailed = false;
         for (const limit of step.limits) {
-          const m = await this.judgeAndStore(runId, i, step, limit, quantities, ctx.fixture, stepStartedAt, clock.now());
-          const view = toMeasurementView(m, runId);
-          this.events.emit('measurement:judged', { stationId, runId, stepKey: step.key, measurement: view });
-          if (m.verdict !== MeasurementVerdict.Pass) {
+          const row = judgeLimit(i, step, limit, quantities, ctx.fixture, stepStartedAt, clock.now());
+          // the write starts now and commits while the fixture goes on; its event follows the commit
+          const stored = this.store(runId, row);
+          events.emitWhen(stored, 'measurement:judged', (measurement) => ({ stationId, runId, stepKey: step.key, measurement }));
+          if (row.verdict !== MeasurementVerdict.Pass) {
             stepFailed = true;
-            failures.push(view);
+            failing.push(stored);
           }
         }
         ctx.onStepTimed?.({ runId, stepKey: step.key, wallMs: performance.now() - t0 });
+        if (events.error) throw events.error;
         if (stepFailed) failedStepKey ??= step.key;
         if (stepFailed && ctx.stopAtFirstFailure) break;
       }
-      verdict = failures.length > 0 ? RunVerdict.Fail : RunVerdict.Pass;
+      verdict = failing.length > 0 ? RunVerdict.Fail : RunVerdict.Pass;
     } catch (err) {
       if (err instanceof CommandAborted || ctx.abort.signal.aborted) {
         verdict = RunVerdict.Aborted;
@@ -525,6 +627,10 @@ export class RunEngineService implements OnApplicationBootstrap, OnApplicationSh
       } else if (isFixtureFault(err)) {
         verdict = RunVerdict.Error;
         errorMessage = err.message;
+      } else if (err === events.error) {
+        verdict = RunVerdict.Error;
+        errorMessage = `A measurement could not be stored (${(err as Error).message}); the run was stopped. Test the unit again.`;
+        this.logger.error(`Run ${runId}: ${(err as Error).stack ?? err}`);
       } else {
         verdict = RunVerdict.Error;
         errorMessage = `Software fault in the test engine: ${(err as Error).message}. The unit was not judged.`;
@@ -539,85 +645,105 @@ export class RunEngineService implements OnApplicationBootstrap, OnApplicationSh
       this.logger.error(`Run ${runId}: ${NO_SAFE_STATE}`);
       errorMessage = errorMessage ? `${errorMessage}. Also: ${NO_SAFE_STATE}` : `Fixture ${link.config.code}: ${NO_SAFE_STATE}`;
     }
+    // every measurement committed and announced before the verdict
+    await events.drain();
+    if (events.error && verdict !== RunVerdict.Error) {
+      verdict = RunVerdict.Error;
+      errorMessage = `A measurement could not be stored (${events.error.message}). Test the unit again.`;
+    }
+    const failures = verdict === RunVerdict.Error ? [] : await Promise.all(failing);
     return this.finish(ctx, verdict, failures, failedStepKey, errorMessage);
   }
 
-  private async judgeAndStore(
-    runId: number,
-    stepIndex: number,
-    step: PlanStep,
-    limit: LimitSpec,
-    quantities: Quantity[],
-    fixture: { voltageUncertaintyV: number },
-    startedAt: Date,
-    measuredAt: Date,
-  ): Promise<Measurement> {
-    const q = quantityFor(limit.key, quantities);
-    const uncertainty = uncertaintyFor(limit, fixture);
-    const spec = { low: limit.low, high: limit.high, uncertainty, rule: limit.rule };
-    let verdict: MeasurementVerdict;
-    let guarded: { low?: number; high?: number } = {};
-    if (q && q.value !== null) {
-      const j = judge(q.value, spec);
-      verdict = j.verdict as MeasurementVerdict;
-      guarded = { low: j.guardedLow, high: j.guardedHigh };
-    } else {
-      // no value: the unit gave nothing to judge, which fails the limit
-      verdict = MeasurementVerdict.Fail;
-      if (limit.rule === 'guarded') guarded = guardedLimits(spec);
-    }
-    const em = this.em.fork();
-    const m = em.create(Measurement, {
-      run: em.getReference(TestRun, runId),
-      stepIndex,
-      stepKey: step.key,
-      stepName: step.name,
-      quantity: limit.key,
-      name: limit.name,
-      value: q?.value ?? undefined,
-      unit: limit.unit,
-      lowLimit: limit.low,
-      highLimit: limit.high,
-      guardedLow: guarded.low,
-      guardedHigh: guarded.high,
-      uncertainty,
-      rule: limit.rule,
-      verdict,
-      raw: q ? { ...q.raw, ...(q.problem ? { problem: q.problem } : {}) } : { problem: `step produced no ${limit.key}` },
-      startedAt,
-      measuredAt,
-    }, { partial: true });
-    // one transaction per measurement: what was judged survives a crash later in the run
-    await em.flush();
-    return m;
+  /**
+   * Stores one judged measurement as a single INSERT (its own transaction, autocommit). Written as one
+   * parameterised statement rather than through the unit of work: the record is written once and never
+   * updated, and the ORM's per-row mapping was the largest cost left in the engine's hot path (see
+   * docs/performance.md). Dates are stored as epoch milliseconds and JSON as text, as the ORM does on SQLite.
+   */
+  private async store(runId: number, row: JudgedRow): Promise<MeasurementView> {
+    const now = Date.now();
+    const result = await this.em.getConnection().execute<{ insertId: number }>(
+      INSERT_MEASUREMENT,
+      [
+        now,
+        now,
+        runId,
+        row.stepIndex,
+        row.stepKey,
+        row.stepName,
+        row.quantity,
+        row.name,
+        row.value ?? null,
+        row.unit,
+        row.lowLimit ?? null,
+        row.highLimit ?? null,
+        row.guardedLow ?? null,
+        row.guardedHigh ?? null,
+        row.uncertainty,
+        row.rule,
+        row.verdict,
+        JSON.stringify(row.raw),
+        row.startedAt.getTime(),
+        row.measuredAt.getTime(),
+      ],
+      'run',
+    );
+    return {
+      id: Number(result.insertId),
+      runId,
+      ...row,
+      value: row.value ?? null,
+      lowLimit: row.lowLimit ?? null,
+      highLimit: row.highLimit ?? null,
+      guardedLow: row.guardedLow ?? null,
+      guardedHigh: row.guardedHigh ?? null,
+      startedAt: row.startedAt.toISOString(),
+      measuredAt: row.measuredAt.toISOString(),
+    };
   }
 
   private async finish(
-    ctx: { runId: number; stationId: number; clock: EngineClock; startedAt: Date; unit: { id: number } },
+    ctx: { runId: number; stationId: number; clock: EngineClock; startedAt: Date; unit: { id: number; view: UnitView } },
     verdict: RunOutcome['verdict'],
-    failures: ReturnType<typeof toMeasurementView>[],
+    failures: MeasurementView[],
     failedStepKey: string | undefined,
     errorMessage: string | undefined,
   ): Promise<RunOutcome> {
     const finishedAt = ctx.clock.now();
     const durationMs = finishedAt.getTime() - ctx.startedAt.getTime();
-    let unitView: UnitView | undefined;
+    const judged = verdict === RunVerdict.Pass || verdict === RunVerdict.Fail;
+    let unit = ctx.unit.view;
     try {
-      const em = this.em.fork();
-      const run = await em.findOneOrFail(TestRun, { id: ctx.runId });
-      const unit = await em.findOneOrFail(Unit, { id: ctx.unit.id }, { populate: ['lot', 'product'] });
-      run.verdict = verdict;
-      run.finishedAt = finishedAt;
-      run.failedStepKey = verdict === RunVerdict.Fail ? failedStepKey : undefined;
-      run.errorMessage = errorMessage;
-      // only a judged run counts as a test of the unit; an error or abort leaves it as it was
-      if (verdict === RunVerdict.Pass || verdict === RunVerdict.Fail) {
-        unit.state = verdict === RunVerdict.Pass ? UnitState.Passed : UnitState.Failed;
-        unit.testCount += 1;
-        unit.lastTestedAt = finishedAt;
+      const now = new Date();
+      await this.em.fork().transactional(async (tx) => {
+        await tx.nativeUpdate(
+          TestRun,
+          { id: ctx.runId },
+          { verdict, finishedAt, failedStepKey: verdict === RunVerdict.Fail ? (failedStepKey ?? null) : null, errorMessage: errorMessage ?? null, updatedAt: now } as never,
+        );
+        // only a judged run counts as a test of the unit; an error or abort leaves it as it was
+        if (judged) {
+          await tx.nativeUpdate(
+            Unit,
+            { id: ctx.unit.id },
+            {
+              state: verdict === RunVerdict.Pass ? UnitState.Passed : UnitState.Failed,
+              testCount: raw('test_count + 1'),
+              lastTestedAt: finishedAt,
+              updatedAt: now,
+            } as never,
+          );
+        }
+      });
+      if (judged) {
+        unit = {
+          ...unit,
+          state: verdict === RunVerdict.Pass ? 'passed' : 'failed',
+          testCount: unit.testCount + 1,
+          lastTestedAt: finishedAt.toISOString(),
+        };
       }
-      await em.flush();
-      unitView = toUnitView(unit);
     } catch (err) {
       this.logger.error(`Run ${ctx.runId}: could not store the verdict ${verdict}: ${(err as Error).message}`);
     }
@@ -629,7 +755,7 @@ export class RunEngineService implements OnApplicationBootstrap, OnApplicationSh
       failures,
       ...(errorMessage ? { errorMessage } : {}),
       durationMs,
-      unit: unitView!,
+      unit,
     });
     return { runId: ctx.runId, verdict, failedStepKey: verdict === RunVerdict.Fail ? failedStepKey : undefined, errorMessage, durationMs };
   }
@@ -658,6 +784,75 @@ export class RunEngineService implements OnApplicationBootstrap, OnApplicationSh
       // state events are a convenience; the status route stays authoritative
     }
   }
+}
+
+/** A judged limit, as it is stored. */
+interface JudgedRow {
+  stepIndex: number;
+  stepKey: string;
+  stepName: string;
+  quantity: string;
+  name: string;
+  value?: number;
+  unit: string;
+  lowLimit?: number;
+  highLimit?: number;
+  guardedLow?: number;
+  guardedHigh?: number;
+  uncertainty: number;
+  rule: string;
+  verdict: MeasurementVerdict;
+  raw: Record<string, unknown>;
+  startedAt: Date;
+  measuredAt: Date;
+}
+
+/**
+ * Judges one limit of a step against the quantity the step produced, with the limit's decision rule and
+ * the expanded uncertainty from {@link uncertaintyFor}. A missing value fails.
+ */
+export function judgeLimit(
+  stepIndex: number,
+  step: PlanStep,
+  limit: LimitSpec,
+  quantities: Quantity[],
+  fixture: { voltageUncertaintyV: number },
+  startedAt: Date,
+  measuredAt: Date,
+): JudgedRow {
+  const q = quantityFor(limit.key, quantities);
+  const uncertainty = uncertaintyFor(limit, fixture);
+  const spec = { low: limit.low, high: limit.high, uncertainty, rule: limit.rule };
+  let verdict: MeasurementVerdict;
+  let guarded: { low?: number; high?: number } = {};
+  if (q && q.value !== null) {
+    const j = judge(q.value, spec);
+    verdict = j.verdict as MeasurementVerdict;
+    guarded = { low: j.guardedLow, high: j.guardedHigh };
+  } else {
+    // no value: the unit gave nothing to judge, which fails the limit
+    verdict = MeasurementVerdict.Fail;
+    if (limit.rule === 'guarded') guarded = guardedLimits(spec);
+  }
+  return {
+    stepIndex,
+    stepKey: step.key,
+    stepName: step.name,
+    quantity: limit.key,
+    name: limit.name,
+    value: q?.value ?? undefined,
+    unit: limit.unit,
+    lowLimit: limit.low,
+    highLimit: limit.high,
+    guardedLow: guarded.low,
+    guardedHigh: guarded.high,
+    uncertainty,
+    rule: limit.rule,
+    verdict,
+    raw: q ? { ...q.raw, ...(q.problem ? { problem: q.problem } : {}) } : { problem: `step produced no ${limit.key}` },
+    startedAt,
+    measuredAt,
+  };
 }
 
 /**

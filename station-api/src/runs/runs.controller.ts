@@ -3,7 +3,7 @@ import { ApiBearerAuth, ApiConflictResponse, ApiNotFoundResponse, ApiOkResponse,
 import { Roles } from '../common/decorators/roles.decorator';
 import { ROLES } from '../users/user.entity';
 import { AbortResultDto, RunDetailDto, RunListDto, RunsQueryDto } from './dto/runs.dto';
-import { refusing } from './refusal.filter';
+import { refusing } from './refusal-http';
 import { RunEngineService } from './run-engine.service';
 import { RunsService } from './runs.service';
 

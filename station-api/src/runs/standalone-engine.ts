@@ -20,11 +20,29 @@ export interface StandaloneEngine {
  * Simulated fixtures run with instant timing and a short command timeout: a reply they drop (intermittent
  * contact) is then noticed in milliseconds instead of the fixture's 2 s.
  */
-export function createStandaloneEngine(em: CoreEntityManager, options: { commandTimeoutMs?: number } = {}): StandaloneEngine {
-  const links = new FixtureLinkService({ simTiming: 'instant', commandTimeoutMs: options.commandTimeoutMs ?? 100, lateReplyGraceMs: 10 });
+export function createStandaloneEngine(
+  em: CoreEntityManager,
+  options: { commandTimeoutMs?: number; simNamespace?: string; simulatorInProcess?: boolean } = {},
+): StandaloneEngine {
+  const links = new FixtureLinkService({
+    simTiming: 'instant',
+    commandTimeoutMs: options.commandTimeoutMs ?? 100,
+    lateReplyGraceMs: 10,
+    // its own simulated fixtures, even if a server in the same process has attached some
+    simNamespace: options.simNamespace ?? 'standalone',
+    simulatorInProcess: options.simulatorInProcess,
+  });
   const events = new StationEventsPublisher();
   const sqlEm = em as EntityManager;
   const plans = new PlansService(sqlEm, new AuditService(sqlEm));
   const engine = new RunEngineService(sqlEm, links, events, plans);
-  return { engine, links, events, close: () => links.shutdown() };
+  return {
+    engine,
+    links,
+    events,
+    close: async () => {
+      await engine.idle();
+      await links.shutdown();
+    },
+  };
 }

@@ -13,7 +13,7 @@ import { AuthUser, CurrentUser } from '../common/decorators/current-user.decorat
 import { Roles } from '../common/decorators/roles.decorator';
 import { ROLES } from '../users/user.entity';
 import { ScanDto, ScanResultDto, StartedRunDto, StartRunDto, StationStatusDto } from './dto/runs.dto';
-import { refusing } from './refusal.filter';
+import { refusing } from './refusal-http';
 import { RunEngineService } from './run-engine.service';
 
 const REFUSALS =
@@ -56,7 +56,7 @@ export class StationRunsController {
       this.engine.start({
         stationId: id,
         serial: dto.serial,
-        requester: { id: user.id, roles: user.roles },
+        requester: { id: user.id, roles: user.roles, displayName: user.displayName },
         safetyConfirmed: dto.safetyConfirmed,
         overrideReason: dto.overrideReason,
       }),

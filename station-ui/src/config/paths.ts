@@ -32,7 +32,7 @@ function page(path: string, label: string, group: NavGroup, roles: readonly Role
  * asks it for them.
  */
 export const pages = {
-  station: page('/station', 'Station', 'floor', ['operator']),
+  station: page('/station', 'Station', 'floor', ['operator', 'engineer']),
   board: page('/board', 'Board', 'floor', ['operator', 'engineer', 'quality']),
   plans: page('/plans', 'Plans', 'engineering', ['engineer']),
   fixtures: page('/fixtures', 'Fixtures', 'engineering', ['engineer']),

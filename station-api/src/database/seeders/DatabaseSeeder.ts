@@ -2,6 +2,7 @@ import type { EntityManager } from '@mikro-orm/core';
 import { Seeder } from '@mikro-orm/seeder';
 import { DemoPlantSeeder } from './DemoPlantSeeder';
 import { PlanSeeder } from './PlanSeeder';
+import { HistorySeeder } from './HistorySeeder';
 
 /**
  * Demo data, in order: plant master data, released test plans, then test history. Every seeder is
@@ -12,6 +13,6 @@ export class DatabaseSeeder extends Seeder {
     await this.call(em, [DemoPlantSeeder]);
     // Next seeders go here, in this order (add each line once its file exists):
     await this.call(em, [PlanSeeder]); // released plan versions from test-plans/
-    //   if (loadEnv().SEED_HISTORY === '1') await this.call(em, [HistorySeeder]);   // SEED_HISTORY=0 skips it (e2e tests)
+    await this.call(em, [HistorySeeder]); // runs the real engine; skips itself when SEED_HISTORY=0 (e2e tests) or runs exist
   }
 }

@@ -54,7 +54,7 @@ export function NotAllowed({ allowedRoles, serverMessage }: NotAllowedProps) {
             </Text>
           )}
           {user && (
-            <Button component={Link} to={homePathFor(user)} mt="lg" variant="filled">
+            <Button component={Link} to={homePathFor(user)} mt="lg" size="md" variant="filled">
               Go to my start page
             </Button>
           )}

@@ -25,7 +25,8 @@ describe('board events', () => {
 
   it('a started step is named from the run outline', () => {
     let b = boardWithRunStarted(sampleBoard(), started);
-    b = boardWithStepStarted(b, { stationId: 1, emittedAt: 2, runId: 13, stepKey: 'vout-no-load', stepIndex: 1 }, ['Input current at no load', 'Output voltage at no load']);
+    const info = { serial: run.serial, startedAt: run.startedAt, stepNames: ['Input current at no load', 'Output voltage at no load'] };
+    b = boardWithStepStarted(b, { stationId: 1, emittedAt: 2, runId: 13, stepKey: 'vout-no-load', stepIndex: 1 }, info);
     expect(b[0]!.currentRun).toMatchObject({ stepIndex: 1, stepName: 'Output voltage at no load' });
     // a step of another run changes nothing
     expect(boardWithStepStarted(b, { stationId: 1, emittedAt: 3, runId: 99, stepKey: 'x', stepIndex: 5 })).toEqual(b);
@@ -56,5 +57,11 @@ describe('board events', () => {
     let b = boardWithRunStarted(sampleBoard(), started);
     b = boardWithState(b, { stationId: 1, emittedAt: 5, state: 'fault', reasons: ['Fixture FX-101 does not answer'] });
     expect(b[0]).toMatchObject({ state: 'fault', reasons: ['Fixture FX-101 does not answer'], currentRun: null });
+  });
+
+  it('a step of a run the refetched board missed brings the unit under test back', () => {
+    const info = { serial: run.serial, startedAt: run.startedAt, stepNames: ['Input current at no load', 'Output voltage at no load'] };
+    const b = boardWithStepStarted(sampleBoard(), { stationId: 1, emittedAt: 2, runId: 13, stepKey: 'vout-no-load', stepIndex: 1 }, info);
+    expect(b[0]).toMatchObject({ state: 'testing', currentRun: { id: 13, serial: run.serial, stepIndex: 1, stepCount: 2, stepName: 'Output voltage at no load' } });
   });
 });

@@ -42,15 +42,28 @@ export function boardWithRunStarted(board: BoardStation[], p: RunStartedPayload)
   }));
 }
 
+/** What the board learnt from a run's `run:started`, kept by the live hook outside the cached board. */
+export interface StartedRunInfo {
+  serial: string;
+  startedAt: string;
+  stepNames: readonly string[];
+}
+
 /**
- * @param stepNames names of the run's steps from its `run:started` (a refetched board has none), so the
- *   tile can name the step; without them the step key is shown
+ * @param info the run's `run:started` facts: names the step, and rebuilds the unit under test when a
+ *   refetched board (answered just before the run began) has none
  */
-export function boardWithStepStarted(board: BoardStation[], p: StepStartedPayload, stepNames?: readonly string[]): BoardStation[] {
+export function boardWithStepStarted(board: BoardStation[], p: StepStartedPayload, info?: StartedRunInfo): BoardStation[] {
   return patchStation(board, p.stationId, (t) => {
-    if (!t.currentRun || t.currentRun.id !== p.runId) return t;
-    const names = stepNames ?? t.currentRun.stepNames;
-    return { ...t, currentRun: { ...t.currentRun, stepIndex: p.stepIndex, stepName: names?.[p.stepIndex] ?? p.stepKey } };
+    const current =
+      t.currentRun && t.currentRun.id === p.runId
+        ? t.currentRun
+        : info
+          ? { id: p.runId, serial: info.serial, stepIndex: 0, stepCount: info.stepNames.length, stepName: null, startedAt: info.startedAt }
+          : null;
+    if (!current) return t;
+    const names = info?.stepNames ?? current.stepNames;
+    return { ...t, state: 'testing', currentRun: { ...current, stepIndex: p.stepIndex, stepName: names?.[p.stepIndex] ?? p.stepKey } };
   });
 }
 

@@ -20,7 +20,7 @@ export function sampleBoard(): BoardStation[] {
       station: { id: 1, code: 'EOL-1', name: 'End-of-line 1' },
       state: 'ready',
       reasons: [],
-      fixture: { id: 1, code: 'FX-101' },
+      fixture: { code: 'FX-101', calibrationDueAt: '2027-01-01T00:00:00.000Z' },
       activeLot: { id: 6, code: 'LB-2648-01', partNumber: 'OB-BK0503' },
       currentRun: null,
       lastRuns: [
@@ -33,7 +33,7 @@ export function sampleBoard(): BoardStation[] {
       station: { id: 2, code: 'EOL-2', name: 'End-of-line 2' },
       state: 'blocked',
       reasons: ['Calibration of FX-102 overdue since 3 Nov'],
-      fixture: { id: 2, code: 'FX-102' },
+      fixture: { code: 'FX-102', calibrationDueAt: '2026-11-03T00:00:00.000Z' },
       activeLot: { id: 7, code: 'LB-2648-02', partNumber: 'OB-BK3305' },
       currentRun: null,
       lastRuns: [],

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import {
   completedSteps,
+  mergeLiveRuns,
   limitStatus,
   progressFraction,
   runFromDetail,
@@ -76,5 +77,20 @@ describe('live run model', () => {
     expect(again.currentStepIndex).toBe(0);
     const done = runFromDetail({ ...sampleRun, verdict: 'error', errorMessage: 'Fixture FX-101 did not answer', durationMs: 900, measurements: [m], steps: sampleSteps }, sampleUnit, null);
     expect(done.finished).toMatchObject({ verdict: 'error', errorMessage: 'Fixture FX-101 did not answer', durationMs: 900 });
+  });
+
+  it('a reload that was under way while events arrived loses none of them', () => {
+    const first = measurementFor(0, 'iinNoLoadMa', 8.2);
+    const second = measurementFor(1, 'voutV@1.5', 5.01);
+    // the server answered with the state when it was asked: one value
+    const fetched = runFromDetail({ ...sampleRun, measurements: [first], steps: sampleSteps }, sampleUnit, null);
+    // meanwhile the events brought two
+    let cached = withMeasurement(started(), judged(first, 50));
+    cached = withMeasurement(cached, judged(second, 60));
+    const merged = mergeLiveRuns(fetched, cached);
+    expect(Object.keys(merged.measurements).sort()).toEqual(['iin-no-load|iinNoLoadMa', 'vout-load|voutV@1.5']);
+    expect(merged.emittedAtMs['vout-load|voutV@1.5']).toBe(60);
+    expect(merged.currentStepIndex).toBe(1);
+    expect(mergeLiveRuns(fetched, null)).toBe(fetched);
   });
 });

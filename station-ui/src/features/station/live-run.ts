@@ -134,6 +134,28 @@ export function runFromDetail(detail: RunDetail, unit: UnitView, known?: LiveRun
   };
 }
 
+/**
+ * Joins a run fetched from the server with the same run as live events have been writing it meanwhile:
+ * events that arrived while the fetch was under way must not be lost. Measurements are never altered
+ * once stored, so the union by place is safe; a finish seen by either side stands.
+ */
+export function mergeLiveRuns(fetched: LiveRun, cached: LiveRun | null | undefined): LiveRun {
+  if (!cached || cached.run.id !== fetched.run.id) return fetched;
+  const finished = cached.finished ?? fetched.finished;
+  const step = Math.max(fetched.currentStepIndex ?? -1, cached.currentStepIndex ?? -1);
+  return {
+    ...fetched,
+    run: cached.finished ? cached.run : fetched.run,
+    unit: cached.unit,
+    steps: fetched.steps.length > 0 ? fetched.steps : cached.steps,
+    measurements: { ...fetched.measurements, ...cached.measurements },
+    emittedAtMs: { ...fetched.emittedAtMs, ...cached.emittedAtMs },
+    currentStepIndex: step >= 0 ? step : null,
+    seenAtMs: cached.seenAtMs,
+    finished,
+  };
+}
+
 /** What a row of the step list shows in its result column. */
 export type StepStatus = 'waiting' | 'measuring' | 'pass' | 'fail' | 'guard_fail' | 'not_run';
 

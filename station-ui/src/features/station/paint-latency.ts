@@ -28,7 +28,8 @@ export function recordPaintLatency(emittedAtMs: number): void {
 
 /**
  * Sample quantile by linear interpolation between order statistics: definition 7 of Hyndman & Fan (1996),
- * the default of R's `quantile()` and NumPy's `percentile()`.
+ * the default of R's `quantile()` and NumPy's `percentile()` (recalled from memory; the tests check it
+ * against d3-array's `quantile()`).
  * @param sorted values in ascending order (ms)
  * @param p probability, 0…1
  */

@@ -35,7 +35,8 @@ export interface BoardCurrentRun {
   /** 0-based index of the step under way */
   stepIndex: number;
   stepCount: number;
-  stepName: string;
+  /** null when the server cannot name the step (the run has not reached one yet) */
+  stepName: string | null;
   startedAt: string;
   /** Step names from `run:started`, so later `step:started` events can be named (screen-side only) */
   stepNames?: string[];
@@ -46,7 +47,7 @@ export interface BoardStation {
   station: { id: number; code: string; name: string };
   state: StationState;
   reasons: string[];
-  fixture: { id: number; code: string } | null;
+  fixture: { code: string; calibrationDueAt?: string } | null;
   activeLot: { id: number; code: string; partNumber: string } | null;
   currentRun: BoardCurrentRun | null;
   /** Newest first */

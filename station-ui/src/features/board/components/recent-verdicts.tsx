@@ -26,7 +26,7 @@ export function RecentVerdicts({ runs, max = 10 }: { runs: BoardLastRun[]; max?:
             title={`${word} · ${r.serial}`}
             style={{ color: `var(--mantine-color-${look.color}-4)` }}
           >
-            <VerdictShape shape={look.shape} size={34} />
+            <VerdictShape shape={look.shape} size={46} />
             <span className={classes.recentLetter} aria-hidden="true">
               {word[0]}
             </span>

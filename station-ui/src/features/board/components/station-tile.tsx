@@ -39,7 +39,8 @@ export function StationTile({ tile }: { tile: BoardStation }) {
           <>
             <div className={classes.currentSerial}>{currentRun.serial}</div>
             <div className={classes.currentStep}>
-              Step {Math.min(currentRun.stepIndex + 1, currentRun.stepCount)} of {currentRun.stepCount}: {currentRun.stepName}
+              Step {Math.min(currentRun.stepIndex + 1, currentRun.stepCount)} of {currentRun.stepCount}
+              {currentRun.stepName ? `: ${currentRun.stepName}` : ''}
             </div>
             <Progress
               value={currentRun.stepCount > 0 ? (currentRun.stepIndex / currentRun.stepCount) * 100 : 0}
@@ -57,6 +58,7 @@ export function StationTile({ tile }: { tile: BoardStation }) {
         <RecentVerdicts runs={lastRuns} />
       </div>
       <footer className={classes.shift}>
+        <span className={classes.shiftName}>{shift?.shiftName ?? 'This shift'}</span>
         <div className={classes.shiftFigure}>
           <span className={classes.shiftValue} data-testid={`fpy-${station.code}`}>
             {shift?.firstPassYieldPct === null || shift?.firstPassYieldPct === undefined ? '—' : `${formatFigure(shift.firstPassYieldPct, 1)}%`}
@@ -67,7 +69,7 @@ export function StationTile({ tile }: { tile: BoardStation }) {
           <span className={classes.shiftValue} data-testid={`tested-${station.code}`}>
             {shift ? shift.tested : '—'}
           </span>
-          <span className={classes.label}>tested{shift?.shiftName ? ` · ${shift.shiftName}` : ''}</span>
+          <span className={classes.label}>tested</span>
         </div>
         <div className={classes.shiftFigure}>
           <span className={classes.shiftValue}>{shift ? shift.failed : '—'}</span>

@@ -4,7 +4,7 @@ import { tokenStore } from '@/lib/api-client';
 import { meQueryKey } from '@/lib/auth';
 import { connectLive, type LiveLinkState } from '@/lib/socket';
 import { boardQueryKey, type BoardStation } from '../api/get-board';
-import { boardWithRunFinished, boardWithRunStarted, boardWithState, boardWithStepStarted } from '../board-events';
+import { boardWithRunFinished, boardWithRunStarted, boardWithState, boardWithStepStarted, type StartedRunInfo } from '../board-events';
 
 /** After a verdict, the shift figures come from the server; refetch at most this often (ms). */
 const SHIFT_REFRESH_MS = 2_000;
@@ -21,10 +21,9 @@ export function useBoardLive(): LiveLinkState {
     const token = tokenStore.get();
     if (!token) return;
     const socket = connectLive(token);
-    let joinedBefore = false;
     let refresh: number | undefined;
-    // step names per running run: a refetched board loses the names `run:started` brought
-    const stepNames = new Map<number, string[]>();
+    // what `run:started` said about each running run: a refetched board may not have it
+    const runs = new Map<number, StartedRunInfo>();
     const patch = (fn: (b: BoardStation[]) => BoardStation[]) =>
       queryClient.setQueryData<BoardStation[]>(boardQueryKey, (old) => (old ? fn(old) : old));
     const refreshSoon = () => {
@@ -42,8 +41,10 @@ export function useBoardLive(): LiveLinkState {
           return;
         }
         setLink('live');
-        if (joinedBefore) void queryClient.invalidateQueries({ queryKey: boardQueryKey });
-        joinedBefore = true;
+        // The join replays each station's last published state, which can be older than the board just
+        // fetched (a settings change publishes nothing), and events are lost while the link is down: the
+        // board computed now wins.
+        void queryClient.invalidateQueries({ queryKey: boardQueryKey });
       });
     });
     socket.on('disconnect', (reason) => {
@@ -60,12 +61,12 @@ export function useBoardLive(): LiveLinkState {
     });
     socket.on('station:state', (p) => patch((b) => boardWithState(b, p)));
     socket.on('run:started', (p) => {
-      stepNames.set(p.run.id, p.steps.map((s) => s.name));
+      runs.set(p.run.id, { serial: p.run.serial, startedAt: p.run.startedAt, stepNames: p.steps.map((s) => s.name) });
       patch((b) => boardWithRunStarted(b, p));
     });
-    socket.on('step:started', (p) => patch((b) => boardWithStepStarted(b, p, stepNames.get(p.runId))));
+    socket.on('step:started', (p) => patch((b) => boardWithStepStarted(b, p, runs.get(p.runId))));
     socket.on('run:finished', (p) => {
-      stepNames.delete(p.runId);
+      runs.delete(p.runId);
       patch((b) => boardWithRunFinished(b, p));
       refreshSoon();
     });

@@ -1,6 +1,6 @@
 import { queryOptions, type QueryClient } from '@tanstack/react-query';
 import type { UnitView } from '@station-events';
-import { runFromDetail, type LiveRun } from '../live-run';
+import { mergeLiveRuns, runFromDetail, type LiveRun } from '../live-run';
 import { getRun, type RunDetail } from './get-run';
 import { getStationStatus } from './get-station-status';
 
@@ -24,18 +24,24 @@ function unitFromRun(detail: RunDetail): UnitView {
   };
 }
 
-export async function loadLiveRun(stationId: number, known: LiveRun | null | undefined): Promise<LiveRun | null> {
+/**
+ * @param cached reads the run in the cache; asked before the fetch (which run to reload) and after it, so
+ *   events that arrived during the fetch are merged in rather than overwritten
+ */
+export async function loadLiveRun(stationId: number, cached: () => LiveRun | null | undefined): Promise<LiveRun | null> {
   const status = await getStationStatus(stationId);
+  const known = cached();
   const runId = status.currentRunId ?? known?.run.id;
-  if (!runId) return null;
+  if (!runId) return cached() ?? null;
   const detail = await getRun(runId);
   const unit = known && known.run.id === runId ? known.unit : unitFromRun(detail);
-  return runFromDetail(detail, unit, known);
+  const now = cached();
+  return mergeLiveRuns(runFromDetail(detail, unit, now ?? known), now);
 }
 
 export const liveRunQueryOptions = (stationId: number, queryClient: QueryClient) =>
   queryOptions({
     queryKey: liveRunQueryKey(stationId),
-    queryFn: () => loadLiveRun(stationId, queryClient.getQueryData<LiveRun | null>(liveRunQueryKey(stationId))),
+    queryFn: () => loadLiveRun(stationId, () => queryClient.getQueryData<LiveRun | null>(liveRunQueryKey(stationId))),
     staleTime: Infinity,
   });

@@ -72,37 +72,35 @@ function TestingView({ live, abortArmed, aborting, onAbort, notice }: TestingVie
   return (
     <section className={classes.panel} data-mode="testing" aria-label="Test in progress">
       <div className={classes.testingHead}>
-        <StationStateMark state="testing" sizePx={30} />
+        <StationStateMark state="testing" sizePx={26} />
         <span className={classes.serial} data-testid="testing-serial">
           {live.run.serial}
         </span>
         <Elapsed sinceMs={live.seenAtMs} />
+        {abortArmed ? (
+          <Button color="signalRed" size="lg" onClick={onAbort} loading={aborting} data-testid="abort-confirm">
+            Press&nbsp;<Kbd>Esc</Kbd>&nbsp;again to stop
+          </Button>
+        ) : (
+          <Button variant="default" size="lg" onClick={onAbort} loading={aborting}>
+            <Kbd>Esc</Kbd>&nbsp;Stop the test
+          </Button>
+        )}
       </div>
       <div className={classes.stepLine} aria-live="polite">
         {current ? (
-          <>
+          <span className={classes.stepText}>
             Step {index! + 1} of {total}: <strong>{current.name}</strong>
-          </>
+          </span>
         ) : (
-          <>Preparing the fixture…</>
+          <span className={classes.stepText}>Preparing the fixture…</span>
         )}
         <span className={classes.doneCount}>
           {completedSteps(live)} of {total} done
         </span>
       </div>
       <Progress value={pct} size={18} radius="sm" color="copper" aria-label="Test progress" transitionDuration={200} />
-      <div className={classes.abortLine}>
-        {notice ? <span className={classes.notice}>{notice}</span> : <span />}
-        {abortArmed ? (
-          <Button color="signalRed" size="md" onClick={onAbort} loading={aborting} data-testid="abort-confirm">
-            Press&nbsp;<Kbd>Esc</Kbd>&nbsp;again to stop the test
-          </Button>
-        ) : (
-          <Button variant="default" size="md" onClick={onAbort} loading={aborting}>
-            <Kbd>Esc</Kbd>&nbsp;Stop the test
-          </Button>
-        )}
-      </div>
+      {notice && <div className={classes.notice}>{notice}</div>}
     </section>
   );
 }

@@ -22,6 +22,12 @@ export function StationHeader({ status, muted, onToggleMuted, onChangeStation }:
         <span className={classes.stationName}>{status?.stationName}</span>
       </div>
       {status && <StationStateMark state={status.state} sizePx={22} />}
+      {status && (status.state === 'blocked' || status.state === 'fault') && status.reasons.length > 0 && (
+        // also while a verdict fills the panel below, the reason stays in sight
+        <span className={classes.headerReasons} title={status.reasons.join('; ')} data-testid="header-reasons">
+          {status.reasons.join('; ')}
+        </span>
+      )}
       <div className={classes.headerLot} data-testid="active-lot">
         {status?.activeLot ? (
           <>

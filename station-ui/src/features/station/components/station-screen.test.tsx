@@ -104,6 +104,9 @@ function serve() {
       if (method === 'POST' && path === '/api/stations/1/scan') {
         const serial = (body as { serial: string }).serial;
         if (serial === 'K5A-2648-00017') return jsonResponse(200, scanResult);
+        if (serial === 'K5A-2648-00003') {
+          return jsonResponse(409, { statusCode: 409, error: 'Conflict', message: 'x', details: { code: 'already_passed' } });
+        }
         if (serial === 'K5A-2647-00005') {
           return jsonResponse(409, {
             statusCode: 409,
@@ -115,6 +118,9 @@ function serve() {
         return jsonResponse(404, { statusCode: 404, error: 'Not Found', message: 'x', details: { code: 'unknown_serial' } });
       }
       if (method === 'POST' && path === '/api/stations/1/runs') return jsonResponse(201, { run: sampleRun });
+      if (method === 'GET' && path === '/api/runs/41/repair-tag.pdf') {
+        return new Response('%PDF-1.7 tag', { status: 200, headers: { 'Content-Type': 'application/pdf' } });
+      }
       if (method === 'POST' && path === '/api/runs/41/abort') return jsonResponse(200, { runId: 41, verdict: 'aborted' });
       return jsonResponse(404, { statusCode: 404, error: 'Not Found', message: `no route ${method} ${path}` });
     }),
@@ -128,9 +134,9 @@ const fire = (event: string, payload: unknown) =>
     await new Promise((r) => setTimeout(r, 0));
   });
 
-async function openStation() {
+async function openStation(roles: Parameters<typeof makeUser>[0] = ['operator']) {
   window.localStorage.setItem('railwright.station.id', '1');
-  const r = renderApp(<StationScreen />, { route: '/station', signedInAs: makeUser(['operator']) });
+  const r = renderApp(<StationScreen />, { route: '/station', signedInAs: makeUser(roles) });
   const field = await screen.findByRole('textbox', { name: 'Serial' });
   await screen.findByTestId('ready-prompt');
   await waitFor(() => expect(field).toHaveFocus());
@@ -152,7 +158,9 @@ describe('StationScreen', () => {
   it('asks which station this is the first time, and remembers the answer', async () => {
     const { user } = renderApp(<StationScreen />, { route: '/station', signedInAs: makeUser(['operator']) });
     await screen.findByRole('heading', { name: 'Which station is this?' });
-    await user.click(await screen.findByRole('listitem', { name: /EOL-1/ }));
+    const choice = await screen.findByRole('button', { name: /EOL-1/ });
+    await waitFor(() => expect(choice).toHaveFocus());
+    await user.keyboard('{Enter}');
     expect(window.localStorage.getItem('railwright.station.id')).toBe('1');
     expect(await screen.findByTestId('station-code')).toHaveTextContent('EOL-1');
     expect(screen.getByTestId('active-lot')).toHaveTextContent('LB-2648-01');
@@ -254,7 +262,7 @@ describe('StationScreen', () => {
     await fire('run:started', { stationId: 1, emittedAt: Date.now(), run: sampleRun, unit: sampleUnit, steps: sampleSteps });
     await screen.findByTestId('testing-serial');
     await user.keyboard('{Escape}');
-    expect(await screen.findByTestId('abort-confirm')).toHaveTextContent('again to stop the test');
+    expect(await screen.findByTestId('abort-confirm')).toHaveTextContent('again to stop');
     expect(calls.some((c) => c.path === '/api/runs/41/abort')).toBe(false);
     await user.keyboard('{Escape}');
     await waitFor(() => expect(calls.some((c) => c.method === 'POST' && c.path === '/api/runs/41/abort')).toBe(true));
@@ -278,5 +286,77 @@ describe('StationScreen', () => {
     const panel = await screen.findByTestId('not-ready');
     expect(panel).toHaveTextContent('BLOCKED');
     expect(panel).toHaveTextContent('Calibration of FX-101 overdue since 3 Nov');
+    expect(screen.getByTestId('header-reasons')).toHaveTextContent('Calibration of FX-101 overdue since 3 Nov');
+  });
+
+  it("an operator's already-passed unit needs an engineer; nothing to override", async () => {
+    const { user, field } = await openStation();
+    await user.type(field, 'K5A-2648-00003{Enter}');
+    expect(await screen.findByTestId('refusal')).toHaveTextContent("needs an engineer's override");
+    expect(screen.queryByRole('dialog')).toBeNull();
+  });
+
+  it('an engineer retests a passed unit after giving a reason, then confirms safety', async () => {
+    const { user, field } = await openStation(['operator', 'engineer']);
+    await user.type(field, 'K5A-2648-00003{Enter}');
+    const dialog = await screen.findByRole('dialog', { name: 'Test a passed unit again' });
+    const reason = within(dialog).getByRole('textbox', { name: 'Reason for the retest' });
+    await waitFor(() => expect(reason).toHaveFocus());
+    await user.type(reason, 'no{Enter}');
+    expect(within(dialog).getByText(/at least 5 characters/)).toBeInTheDocument();
+    await user.type(reason, ' - customer return, rework of C12{Enter}');
+    const safety = await screen.findByRole('dialog', { name: 'Before power is applied' });
+    expect(safety).toHaveTextContent('Reason: no - customer return, rework of C12');
+    now += 1_000;
+    await waitFor(() => expect(within(safety).getByRole('button', { name: /Apply power and test/ })).toHaveFocus());
+    await user.keyboard('{Enter}');
+    await waitFor(() =>
+      expect(calls).toContainEqual({
+        method: 'POST',
+        path: '/api/stations/1/runs',
+        body: { serial: 'K5A-2648-00003', safetyConfirmed: true, overrideReason: 'no - customer return, rework of C12' },
+      }),
+    );
+    await waitFor(() => expect(field).toHaveFocus());
+  });
+
+  it('F8 prints the repair tag of a failed unit', async () => {
+    const createObjectURL = vi.fn(() => 'blob:tag');
+    const revokeObjectURL = vi.fn();
+    Object.assign(URL, { createObjectURL, revokeObjectURL });
+    await openStation();
+    await fire('run:started', { stationId: 1, emittedAt: Date.now(), run: sampleRun, unit: sampleUnit, steps: sampleSteps });
+    const bad = measurementFor(0, 'iinNoLoadMa', 22, 'fail');
+    await fire('run:finished', { stationId: 1, emittedAt: Date.now(), runId: 41, verdict: 'fail', failures: [bad], durationMs: 1000, unit: sampleUnit });
+    await screen.findByTestId('verdict');
+    await act(async () => {
+      window.dispatchEvent(new KeyboardEvent('keydown', { key: 'F8' }));
+      await new Promise((r) => setTimeout(r, 0));
+    });
+    await waitFor(() => expect(calls.some((c) => c.path === '/api/runs/41/repair-tag.pdf')).toBe(true));
+    await waitFor(() => expect(screen.getByTestId('verdict').textContent).toContain('Tag sent'));
+    expect(createObjectURL).toHaveBeenCalled();
+    expect(await screen.findByText(/Tag sent to the printer/)).toHaveAttribute('href', 'blob:tag');
+    expect(document.querySelector('iframe[title="Repair tag"]')).toHaveAttribute('src', 'blob:tag');
+  });
+
+  it('an ERROR says the unit was not judged and must be tested again', async () => {
+    await openStation();
+    await fire('run:started', { stationId: 1, emittedAt: Date.now(), run: sampleRun, unit: sampleUnit, steps: sampleSteps });
+    await fire('run:finished', {
+      stationId: 1,
+      emittedAt: Date.now(),
+      runId: 41,
+      verdict: 'error',
+      failures: [],
+      errorMessage: 'Fixture FX-101 did not answer MEAS:VOLT:OUT? within 2000 ms',
+      durationMs: 2500,
+      unit: sampleUnit,
+    });
+    const verdict = await screen.findByTestId('verdict');
+    expect(within(verdict).getByTestId('verdict-word')).toHaveTextContent('ERROR');
+    expect(verdict).toHaveTextContent('Fixture FX-101 did not answer');
+    expect(verdict).toHaveTextContent('Unit not judged — test it again.');
+    expect(within(verdict).queryByRole('button', { name: /Print repair tag/ })).toBeNull();
   });
 });

@@ -285,7 +285,7 @@ export function StationScreen() {
           Which station is this?
         </Title>
         <Text fz={20}>Choose the station this screen stands at. This computer remembers it.</Text>
-        <StationPicker selectedId={null} onPick={pick} />
+        <StationPicker selectedId={null} onPick={pick} autoFocusFirst />
       </Stack>
     );
   }

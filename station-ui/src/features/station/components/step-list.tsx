@@ -1,5 +1,5 @@
 import type { LimitView, MeasurementView, StepOutline } from '@station-events';
-import { useLayoutEffect } from 'react';
+import { useEffect, useLayoutEffect, useRef } from 'react';
 import { VerdictBadge } from '@/components/verdict';
 import { formatLimits, formatValue, guardDiffers } from '../format';
 import { limitStatus, measurementKey, stepStatus, type LiveRun, type StepStatus } from '../live-run';
@@ -33,7 +33,7 @@ function ResultCell({ status }: { status: StepStatus }) {
     case 'pass':
     case 'fail':
     case 'guard_fail':
-      return <VerdictBadge verdict={status} size="lg" className={classes.badge} />;
+      return <VerdictBadge verdict={status} size="md" className={classes.badge} />;
     case 'measuring':
       return <span className={classes.measuring}>measuring…</span>;
     case 'not_run':
@@ -66,19 +66,22 @@ function LimitRow({ live, step, stepIndex, limit, first }: LimitRowProps) {
   const multi = step.limits.length > 1;
   return (
     <tr data-testid={`row-${key}`} data-status={status}>
-      <td className={classes.stepCell}>
-        {first ? (
+      {first && (
+        // a step with several checks names itself once, beside all of them; a single check uses both columns
+        <td className={classes.stepCell} rowSpan={multi ? step.limits.length : undefined} colSpan={multi ? undefined : 2}>
           <span className={classes.stepName} title={step.name}>
             <span className={classes.stepNo}>{stepIndex + 1}</span>
-            {step.name}
+            <span className={classes.stepText} data-multi={multi ? 'yes' : 'no'}>
+              {step.name}
+            </span>
           </span>
-        ) : null}
-        {multi && (
-          <span className={classes.quantity} title={limit.name}>
-            {limit.name}
-          </span>
-        )}
-      </td>
+        </td>
+      )}
+      {multi && (
+        <td className={classes.checkCell} title={limit.name}>
+          {limit.name}
+        </td>
+      )}
       <td className={classes.valueCell}>
         <MeasuredValue measurement={m} limit={limit} emittedAtMs={live.emittedAtMs[key]} />
       </td>
@@ -107,17 +110,28 @@ export interface StepListProps {
  * value arrives. Fixed column widths and reserved lines mean a streamed value never moves anything.
  */
 export function StepList({ live }: StepListProps) {
+  const tableRef = useRef<HTMLTableElement>(null);
+  const firstFailed = live.finished ? live.steps.findIndex((_, i) => ['fail', 'guard_fail'].includes(stepStatus(live, i))) : -1;
+  const focusIndex = live.finished ? firstFailed : live.currentStepIndex;
+  // keep the step under way (or the first failed one) in view when the list is taller than its box
+  useEffect(() => {
+    if (focusIndex === null || focusIndex < 0) return;
+    tableRef.current?.querySelectorAll('tbody')[focusIndex]?.scrollIntoView({ block: 'nearest' });
+  }, [focusIndex]);
   return (
-    <table className={classes.table} aria-label="Test steps">
+    <table className={classes.table} aria-label="Test steps" ref={tableRef}>
       <colgroup>
         <col className={classes.colStep} />
+        <col className={classes.colCheck} />
         <col className={classes.colValue} />
         <col className={classes.colLimit} />
         <col className={classes.colResult} />
       </colgroup>
       <thead>
         <tr>
-          <th scope="col">Step</th>
+          <th scope="col" colSpan={2}>
+            Step
+          </th>
           <th scope="col" className={classes.right}>
             Measured
           </th>

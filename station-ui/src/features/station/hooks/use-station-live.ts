@@ -10,6 +10,9 @@ import { stationStatusQueryKey, type StationStatus } from '../api/get-station-st
 import { stationsQueryKey, type StationSummary } from '../api/get-stations';
 import { runFromStarted, withFinished, withMeasurement, withStepStarted, type LiveRun } from '../live-run';
 
+/** How long to wait for `run:started` after a `testing` state names a run this screen does not show (ms). */
+const LATE_RUN_MS = 1_000;
+
 export interface StationLiveHandlers {
   /** A run on this station finished (for the audible cue) */
   onRunFinished?: (payload: RunFinishedPayload) => void;
@@ -44,6 +47,7 @@ export function useStationLive(stationId: number | null, handlers: StationLiveHa
     setLink('connecting');
     const socket = connectLive(token);
     let joinedBefore = false;
+    let lateRunTimer: number | undefined;
     const runKey = liveRunQueryKey(stationId);
     const updateRun = (fn: (live: LiveRun) => LiveRun) =>
       queryClient.setQueryData<LiveRun | null>(runKey, (old) => (old ? fn(old) : old));
@@ -55,9 +59,11 @@ export function useStationLive(stationId: number | null, handlers: StationLiveHa
           return;
         }
         setLink('live');
+        // The join replays the last state the server published, which can be older than the status just
+        // fetched (a settings change publishes nothing); the status computed now wins.
+        void queryClient.invalidateQueries({ queryKey: stationStatusQueryKey(stationId) });
         if (joinedBefore) {
           // events sent while the link was down are lost: ask for the present state again
-          void queryClient.invalidateQueries({ queryKey: stationStatusQueryKey(stationId) });
           void queryClient.invalidateQueries({ queryKey: runKey });
           void queryClient.invalidateQueries({ queryKey: shiftSummaryQueryKey(stationId) });
         }
@@ -89,10 +95,14 @@ export function useStationLive(stationId: number | null, handlers: StationLiveHa
       queryClient.setQueryData<StationSummary[]>(stationsQueryKey, (old) =>
         old?.map((s) => (s.id === stationId ? { ...s, state: p.state, reasons: p.reasons } : s)),
       );
-      const shown = queryClient.getQueryData<LiveRun | null>(runKey);
-      if (p.state === 'testing' && p.currentRunId !== undefined && shown?.run.id !== p.currentRunId) {
-        // a run this screen has not seen start (started elsewhere, or before the page loaded)
-        void queryClient.invalidateQueries({ queryKey: runKey });
+      const runId = p.currentRunId;
+      if (p.state === 'testing' && runId !== undefined && queryClient.getQueryData<LiveRun | null>(runKey)?.run.id !== runId) {
+        // `run:started` normally follows at once; if it does not (the run began before this page joined),
+        // load the run from the server
+        window.clearTimeout(lateRunTimer);
+        lateRunTimer = window.setTimeout(() => {
+          if (queryClient.getQueryData<LiveRun | null>(runKey)?.run.id !== runId) void queryClient.invalidateQueries({ queryKey: runKey });
+        }, LATE_RUN_MS);
       }
     });
     socket.on('run:started', (p) => {
@@ -117,6 +127,7 @@ export function useStationLive(stationId: number | null, handlers: StationLiveHa
     });
 
     return () => {
+      window.clearTimeout(lateRunTimer);
       socket.removeAllListeners();
       socket.disconnect();
     };
