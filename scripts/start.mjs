@@ -10,6 +10,8 @@ const env = {
   PORT: String(port),
   DATABASE_PATH: dbPath,
   UI_DIST: resolve(root, 'station-ui/dist'),
+  // keep the console readable for the URL and sign-ins; LOG_LEVEL=log shows every route at start
+  LOG_LEVEL: process.env.LOG_LEVEL ?? 'warn',
 };
 
 ensureNodeModules();
