@@ -1,5 +1,6 @@
 import { BadRequestException, INestApplication, ValidationError, ValidationPipe } from '@nestjs/common';
 import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
+import compression from 'compression';
 import { ApiExceptionFilter } from './common/filters/http-exception.filter';
 
 function flatten(errors: ValidationError[], parent = ''): { field: string; problems: string[] }[] {
@@ -12,6 +13,10 @@ function flatten(errors: ValidationError[], parent = ''): { field: string; probl
 
 /** Global pipes, filter, prefix and OpenAPI; used by main.ts and by the e2e tests alike. */
 export function configureApp(app: INestApplication): void {
+  // gzip for the UI's JS/CSS and the API's JSON. Registered before the routes and the static UI so it wraps
+  // both; the default filter leaves PDFs and images alone (already compressed), and socket.io answers on the
+  // HTTP server before Express sees the request, so its traffic is untouched.
+  app.use(compression());
   app.setGlobalPrefix('api', { exclude: [] });
   app.enableShutdownHooks();
   app.useGlobalPipes(

@@ -5,6 +5,7 @@ import { code128Png } from '../src/floor/repair-tag.pdf';
 import { decodePng, pdfRgbImages, pdfText, readBarcode } from '../src/floor/pdf-inspect.spec-helper';
 import type { MeasurementView, StationEventMap, StationEventName } from '../src/realtime/station-events';
 import { StationEventsPublisher } from '../src/realtime/station-events.publisher';
+import { RunEngineService } from '../src/runs/run-engine.service';
 import { Station } from '../src/stations/station.entity';
 import { Unit, UnitState } from '../src/units/unit.entity';
 import { createTestApp, login, TestApp } from './create-test-app';
@@ -283,12 +284,19 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
       const publisher = t.app.get(StationEventsPublisher);
       let reachedStep2!: () => void;
       const atStep2 = new Promise<void>((resolve) => (reachedStep2 = resolve));
-      const stop = publisher.subscribe(<K extends StationEventName>(name: K, payload: StationEventMap[K]) => {
-        if (name === 'step:started' && (payload as StationEventMap['step:started']).stepIndex === 2) {
-          holding = true;
-          reachedStep2();
-        }
+      // hold as soon as step 2 begins (synchronous hook: with instant timing the run would otherwise finish
+      // before the step:started event, which waits for the earlier writes), then wait for that event
+      const engine = t.app.get(RunEngineService);
+      const stopHold = engine.onStepStarting((_runId, _key, stepIndex) => {
+        if (stepIndex === 2) holding = true;
       });
+      const stopEvents = publisher.subscribe(<K extends StationEventName>(name: K, payload: StationEventMap[K]) => {
+        if (name === 'step:started' && (payload as StationEventMap['step:started']).stepIndex === 2) reachedStep2();
+      });
+      const stop = () => {
+        stopHold();
+        stopEvents();
+      };
       try {
         const started = await as('operator', http().post(`/api/stations/${stations['EOL-1'].id}/runs`)).send({ serial, safetyConfirmed: true }).expect(201);
         const runId = started.body.run.id as number;

@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { launchBrowser, screenshot } from './support/browser';
 import { startStationServer, type StationServer } from './support/server';
 import { signInAs } from './support/sign-in';
-import { api, apiToken, unitsFor, type StationUnits } from './floor-units';
+import { api, apiToken, unitsFor, writeSimSettings, type SimSettings, type StationUnits } from './floor-units';
 
 /*
  * The wall board live, in Chromium at 1920×1080 (a wall screen) against the built server with the simulated
@@ -18,6 +18,8 @@ let page: Page;
 let operatorToken: string;
 let eol1: StationUnits;
 let eol2: StationUnits;
+/** FIXTURE_SIM_CONFIG for the server: in EOL-1's and EOL-2's lots one unit good, one wrong_feedback */
+let sim: SimSettings;
 
 async function startRun(units: StationUnits, serial: string): Promise<number> {
   const { run } = await api<{ run: { id: number } }>(server.baseUrl, operatorToken, `/stations/${units.stationId}/runs`, {
@@ -36,10 +38,11 @@ async function verdictMarks(code: string): Promise<(string | null)[]> {
 }
 
 beforeAll(async () => {
-  [server, browser] = await Promise.all([startStationServer({ FIXTURE_SIM_TIMING: 'realistic' }), launchBrowser()]);
+  sim = await writeSimSettings(['EOL-1', 'EOL-2']);
+  [server, browser] = await Promise.all([startStationServer({ FIXTURE_SIM_TIMING: 'realistic', ...sim.env }), launchBrowser()]);
   operatorToken = await apiToken(server.baseUrl, 'operator');
-  eol1 = await unitsFor(server.baseUrl, operatorToken, 'EOL-1');
-  eol2 = await unitsFor(server.baseUrl, operatorToken, 'EOL-2');
+  eol1 = await unitsFor(server.baseUrl, operatorToken, 'EOL-1', sim);
+  eol2 = await unitsFor(server.baseUrl, operatorToken, 'EOL-2', sim);
   // EOL-3 blocked for the picture: its fixture taken out of service, as an engineer would
   const engineerToken = await apiToken(server.baseUrl, 'engineer');
   const fixtures = await api<{ id: number; code: string }[] | { items: { id: number; code: string }[] }>(server.baseUrl, engineerToken, '/fixtures');
@@ -55,6 +58,7 @@ afterAll(async () => {
   await context?.close();
   await browser?.close();
   await server?.stop();
+  await sim?.remove();
 });
 
 describe('line board (real browser, live events)', () => {

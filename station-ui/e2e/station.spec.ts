@@ -5,7 +5,7 @@ import { summariseLatencies } from '../src/features/station/paint-latency';
 import { launchBrowser, newPage, screenshot } from './support/browser';
 import { startStationServer, type StationServer } from './support/server';
 import { signInAs } from './support/sign-in';
-import { apiToken, unitsFor, type StationUnits } from './floor-units';
+import { apiToken, unitsFor, writeSimSettings, type SimSettings, type StationUnits } from './floor-units';
 
 /*
  * The operator's station end to end, in Chromium against the built server with the simulated fixture at
@@ -42,6 +42,8 @@ async function confirmSafetyFromKeyboard(): Promise<void> {
 }
 
 let units: StationUnits;
+/** FIXTURE_SIM_CONFIG for the server: one unit of EOL-1's lot good, one wrong_feedback */
+let sim: SimSettings;
 const latencies: number[] = [];
 
 async function collectLatencies(): Promise<void> {
@@ -54,8 +56,9 @@ async function collectLatencies(): Promise<void> {
 }
 
 beforeAll(async () => {
-  [server, browser] = await Promise.all([startStationServer({ FIXTURE_SIM_TIMING: 'realistic' }), launchBrowser()]);
-  units = await unitsFor(server.baseUrl, await apiToken(server.baseUrl, 'operator'), 'EOL-1');
+  sim = await writeSimSettings(['EOL-1']);
+  [server, browser] = await Promise.all([startStationServer({ FIXTURE_SIM_TIMING: 'realistic', ...sim.env }), launchBrowser()]);
+  units = await unitsFor(server.baseUrl, await apiToken(server.baseUrl, 'operator'), 'EOL-1', sim);
   ({ context, page } = await newPage(browser, server.baseUrl));
 });
 
@@ -63,6 +66,7 @@ afterAll(async () => {
   await context?.close();
   await browser?.close();
   await server?.stop();
+  await sim?.remove();
 });
 
 describe('operator station (real browser, simulated fixture at realistic timing)', () => {

@@ -1,5 +1,6 @@
 import { plainToInstance, Type } from 'class-transformer';
 import { IsIn, IsInt, IsOptional, IsString, Matches, Max, Min, MinLength, validateSync } from 'class-validator';
+import { readSimulatorConfigFile } from './fixture-sim.config';
 
 /** Every environment variable the server reads. Documented in .env.example at the repo root. */
 export class EnvironmentVariables {
@@ -32,6 +33,13 @@ export class EnvironmentVariables {
   @IsOptional() @IsIn(['realistic', 'instant'])
   FIXTURE_SIM_TIMING: 'realistic' | 'instant' = 'realistic';
 
+  /**
+   * JSON file of the simulated fixtures' defects (mock-fixture's SimulatorConfig: defectRates, lots,
+   * serials); empty: the simulator's demo defect rates. Read and checked at start-up.
+   */
+  @IsOptional() @IsString()
+  FIXTURE_SIM_CONFIG: string = '';
+
   /** '1' builds test history when seeding (slow: runs the engine); '0' seeds master data and plans only */
   @IsOptional() @IsIn(['0', '1'], { message: "SEED_HISTORY must be '0' or '1'" })
   SEED_HISTORY: '0' | '1' = '1';
@@ -50,10 +58,16 @@ export class EnvironmentVariables {
 export function validateEnv(raw: Record<string, unknown>): EnvironmentVariables {
   const env = plainToInstance(EnvironmentVariables, raw, { enableImplicitConversion: false, exposeDefaultValues: true });
   const errors = validateSync(env, { skipMissingProperties: false, whitelist: false });
-  if (errors.length > 0) {
-    const lines = errors.map((e) => `  ${e.property}: ${Object.values(e.constraints ?? {}).join('; ')}`);
-    throw new Error(`Configuration is not valid:\n${lines.join('\n')}`);
+  const lines = errors.map((e) => `  ${e.property}: ${Object.values(e.constraints ?? {}).join('; ')}`);
+  if (env.FIXTURE_SIM_CONFIG && !errors.some((e) => e.property === 'FIXTURE_SIM_CONFIG')) {
+    // the file is checked here, so a bad one stops the server (and the seeder) before anything starts
+    try {
+      readSimulatorConfigFile(env.FIXTURE_SIM_CONFIG);
+    } catch (err) {
+      lines.push(`  FIXTURE_SIM_CONFIG: ${(err as Error).message}`);
+    }
   }
+  if (lines.length > 0) throw new Error(`Configuration is not valid:\n${lines.join('\n')}`);
   return env;
 }
 

@@ -134,6 +134,10 @@ export class RunEngineService implements OnApplicationBootstrap, BeforeApplicati
   private readonly stepListeners = new Set<(runId: number, stepKey: string, stepIndex: number) => void>();
   /** State publications still under way (they query the database); awaited before shutdown */
   private readonly background = new Set<Promise<unknown>>();
+  /** The last state publication of each station: the next one waits for it, so they go out in order */
+  private readonly stateChains = new Map<number, Promise<void>>();
+  /** Stations whose master data changed during a run: their state is worked out afresh when it ends */
+  private readonly staleAfterRun = new Set<number>();
 
   constructor(
     private readonly em: EntityManager,
@@ -526,6 +530,8 @@ export class RunEngineService implements OnApplicationBootstrap, BeforeApplicati
         this.active.delete(stationId);
         const r = readiness({ ...after, now: new Date(), fixtureFault: this.links.faultOf(a.fixture.id)?.message });
         this.events.emit('station:state', { stationId, state: r.state, reasons: r.reasons });
+        // the snapshot above predates any change made during the run (a calibration, a lot on hold)
+        if (this.staleAfterRun.delete(stationId)) this.track(this.publishState(stationId));
       });
       return { run: view, done: active.done };
     } finally {
@@ -762,9 +768,47 @@ export class RunEngineService implements OnApplicationBootstrap, BeforeApplicati
 
   // ---- station state events ---------------------------------------------------------------------
 
-  private async publishState(stationId: number): Promise<void> {
+  /**
+   * Sends a fresh `station:state` (as `GET /api/stations/:id/status` computes it) for each station, in the
+   * background. A station under test keeps its `testing` state; it gets the fresh state when its run ends.
+   * Called when master data that the state depends on has changed (see StationStateNotifier).
+   */
+  announceState(stationIds: Iterable<number> | Promise<Iterable<number>>): void {
+    // tracked from the start (the ids may still be looked up), so shutdown waits for the whole announcement
+    this.track(
+      Promise.resolve(stationIds).then(
+        (ids) => {
+          for (const id of new Set(ids)) {
+            if (this.active.has(id)) this.staleAfterRun.add(id);
+            else this.track(this.publishState(id));
+          }
+        },
+        (err: Error) => this.logger.warn(`Could not work out which stations to announce: ${err.message}`),
+      ),
+    );
+  }
+
+  /** Publications of one station run one after the other, so the last one sent reflects the last change. */
+  private publishState(stationId: number): Promise<void> {
+    const next = (this.stateChains.get(stationId) ?? Promise.resolve()).then(() => this.publishStateNow(stationId));
+    this.stateChains.set(stationId, next);
+    void next.finally(() => {
+      if (this.stateChains.get(stationId) === next) this.stateChains.delete(stationId);
+    });
+    return next;
+  }
+
+  private async publishStateNow(stationId: number): Promise<void> {
     try {
       const s = await this.status(stationId);
+      const runningNow = this.active.has(stationId);
+      if ((s.state === 'testing') !== runningNow) {
+        // a run started or ended while the database was read, and announced its own state: this one is
+        // older. Catch up when the run ends, or now with a fresh read.
+        if (runningNow) this.staleAfterRun.add(stationId);
+        else this.track(this.publishState(stationId));
+        return;
+      }
       this.events.emit('station:state', {
         stationId,
         state: s.state,
@@ -772,6 +816,7 @@ export class RunEngineService implements OnApplicationBootstrap, BeforeApplicati
         ...(s.currentRunId ? { currentRunId: s.currentRunId, currentSerial: s.currentSerial } : {}),
       });
     } catch (err) {
+      if (err instanceof RunRefusal && err.code === 'station_not_found') return;
       this.logger.warn(`Could not publish the state of station ${stationId}: ${(err as Error).message}`);
     }
   }

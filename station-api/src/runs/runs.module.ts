@@ -8,12 +8,14 @@ import { RunEngineService } from './run-engine.service';
 import { RunsController } from './runs.controller';
 import { RunsService } from './runs.service';
 import { StationRunsController } from './station-runs.controller';
+import { StationStateNotifier } from './station-state.notifier';
 
 /** The run engine, the runs REST routes and the station routes an operator uses (status, scan, start). */
 @Module({
   imports: [FixtureLinkModule, RealtimeModule, StationsModule, PlansModule],
   controllers: [RunsController, StationRunsController],
-  providers: [RunEngineService, RunsService],
+  // StationStateNotifier announces station states when master data is written (it watches the ORM's flushes)
+  providers: [RunEngineService, RunsService, StationStateNotifier],
   exports: [RunEngineService],
 })
 export class RunsModule implements OnModuleInit {
