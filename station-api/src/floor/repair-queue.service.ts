@@ -2,6 +2,7 @@ import { EntityManager, FilterQuery } from '@mikro-orm/sqlite';
 import { Injectable, NotFoundException } from '@nestjs/common';
 import { Lot } from '../lots/lot.entity';
 import { Measurement, MeasurementVerdict } from '../runs/measurement.entity';
+import { toMeasuredAgainstLimits } from '../runs/run-views';
 import { RunVerdict, TestRun } from '../runs/test-run.entity';
 import { Station } from '../stations/station.entity';
 import { Unit, UnitState } from '../units/unit.entity';
@@ -84,12 +85,7 @@ export class RepairQueueService {
         stepName: m.stepName,
         quantity: m.quantity,
         name: m.name,
-        value: m.value ?? null,
-        unit: m.unit,
-        lowLimit: m.lowLimit ?? null,
-        highLimit: m.highLimit ?? null,
-        guardedLow: m.guardedLow ?? null,
-        guardedHigh: m.guardedHigh ?? null,
+        ...toMeasuredAgainstLimits(m),
         verdict: m.verdict,
       });
     }

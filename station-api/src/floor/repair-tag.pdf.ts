@@ -1,18 +1,13 @@
 import bwipjs from 'bwip-js';
 import PDFDocument from 'pdfkit';
+import type { MeasuredAgainstLimits } from '../runs/run-views';
 import { isCode128TagText } from './code128';
 
 /** One measurement that did not pass, as the tag prints it. Values and limits are in `unit`. */
-export interface RepairTagFailure {
+export interface RepairTagFailure extends MeasuredAgainstLimits {
   stepName: string;
   /** Name of the judged quantity, e.g. "Output voltage at 1.5 A" */
   name: string;
-  value: number | null;
-  unit: string;
-  lowLimit: number | null;
-  highLimit: number | null;
-  guardedLow: number | null;
-  guardedHigh: number | null;
   verdict: 'fail' | 'guard_fail';
 }
 

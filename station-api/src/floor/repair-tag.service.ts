@@ -1,6 +1,7 @@
 import { EntityManager } from '@mikro-orm/sqlite';
 import { ConflictException, Injectable, NotFoundException, UnprocessableEntityException } from '@nestjs/common';
 import { Measurement, MeasurementVerdict } from '../runs/measurement.entity';
+import { toMeasuredAgainstLimits } from '../runs/run-views';
 import { RunVerdict, TestRun } from '../runs/test-run.entity';
 import { isCode128TagText } from './code128';
 import { renderRepairTag, RepairTagFailure } from './repair-tag.pdf';
@@ -52,12 +53,7 @@ export class RepairTagService {
     const failures: RepairTagFailure[] = failing.map((m) => ({
       stepName: m.stepName,
       name: m.name,
-      value: m.value ?? null,
-      unit: m.unit,
-      lowLimit: m.lowLimit ?? null,
-      highLimit: m.highLimit ?? null,
-      guardedLow: m.guardedLow ?? null,
-      guardedHigh: m.guardedHigh ?? null,
+      ...toMeasuredAgainstLimits(m),
       verdict: m.verdict === MeasurementVerdict.GuardFail ? 'guard_fail' : 'fail',
     }));
     const pdf = await renderRepairTag({

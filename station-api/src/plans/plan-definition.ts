@@ -65,3 +65,16 @@ export interface PlanStep {
   params: StepParams;
   limits: LimitSpec[];
 }
+
+/**
+ * The product ratings a plan is checked against and its steps run with (docs/architecture.md demo plant
+ * table). Volts and amperes.
+ */
+export interface PlanProduct {
+  partNumber: string;
+  vinMinV: number;
+  vinNomV: number;
+  vinMaxV: number;
+  voutNomV: number;
+  ioutRatedA: number;
+}

@@ -5,7 +5,7 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { basename, isAbsolute, join, relative, resolve } from 'node:path';
 import { isMap, isScalar, isSeq, LineCounter, parseDocument, type Document } from 'yaml';
 import { guardedLimits } from '../measure/acceptance';
-import type { DecisionRule, LimitSpec, PlanStep, StepKind, StepParams } from './plan-definition';
+import type { DecisionRule, LimitSpec, PlanProduct, PlanStep, StepKind, StepParams } from './plan-definition';
 import { KIND_PARAMS, KIND_QUANTITY_INFO, sameLoad, splitLimitKey, type QuantityInfo } from './plan-quantities';
 
 /**
@@ -59,15 +59,7 @@ export function formatIssue(i: PlanIssue): string {
   return `${where}, ${i.path}: ${i.message}`;
 }
 
-/** The product ratings a plan is checked against (docs/architecture.md demo plant table). */
-export interface PlanProduct {
-  partNumber: string;
-  vinMinV: number;
-  vinNomV: number;
-  vinMaxV: number;
-  voutNomV: number;
-  ioutRatedA: number;
-}
+export type { PlanProduct };
 
 export interface PlanHeader {
   planCode: string;

@@ -51,6 +51,24 @@ export function toUnitView(unit: Unit): UnitView {
   };
 }
 
+/** The fields every view of a measurement shows together: the stored value, its unit and the limits it was judged against; absent values are `null`. */
+export type MeasuredAgainstLimits = Pick<MeasurementView, 'value' | 'unit' | 'lowLimit' | 'highLimit' | 'guardedLow' | 'guardedHigh'>;
+
+/**
+ * A measurement's value (in `unit`) with its limits and guarded limits (same unit), absent ones as `null`.
+ * Shared by the run views here and the floor's repair queue and repair tag, so all show a reading the same way.
+ */
+export function toMeasuredAgainstLimits(m: Measurement): MeasuredAgainstLimits {
+  return {
+    value: m.value ?? null,
+    unit: m.unit,
+    lowLimit: m.lowLimit ?? null,
+    highLimit: m.highLimit ?? null,
+    guardedLow: m.guardedLow ?? null,
+    guardedHigh: m.guardedHigh ?? null,
+  };
+}
+
 export function toMeasurementView(m: Measurement, runId = m.run.id): MeasurementView {
   return {
     id: m.id,
@@ -60,12 +78,7 @@ export function toMeasurementView(m: Measurement, runId = m.run.id): Measurement
     stepName: m.stepName,
     quantity: m.quantity,
     name: m.name,
-    value: m.value ?? null,
-    unit: m.unit,
-    lowLimit: m.lowLimit ?? null,
-    highLimit: m.highLimit ?? null,
-    guardedLow: m.guardedLow ?? null,
-    guardedHigh: m.guardedHigh ?? null,
+    ...toMeasuredAgainstLimits(m),
     uncertainty: m.uncertainty,
     rule: m.rule,
     verdict: m.verdict,

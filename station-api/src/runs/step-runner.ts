@@ -3,17 +3,10 @@ import { efficiencyPct } from '../measure/efficiency';
 import { lineRegulationPct, loadRegulationPct, loadRegulationRefPct } from '../measure/regulation';
 import { rippleMvPp } from '../measure/ripple';
 import { transientMetrics } from '../measure/transient';
-import type { PlanStep, StepKind } from '../plans/plan-definition';
+import type { PlanProduct, PlanStep, StepKind } from '../plans/plan-definition';
 
-/** What a step needs to know about the product under test. */
-export interface ProductRatings {
-  partNumber: string;
-  vinMinV: number;
-  vinNomV: number;
-  vinMaxV: number;
-  voutNomV: number;
-  ioutRatedA: number;
-}
+/** What a step needs to know about the product under test: the ratings its plan was checked against. */
+export type ProductRatings = PlanProduct;
 
 /** Everything a step sequence may touch. */
 export interface StepContext {

@@ -1,7 +1,8 @@
-import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import { ApiProperty, ApiPropertyOptional, PickType } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
 import { IsInt, IsOptional, Max, Min } from 'class-validator';
-import type { MeasurementVerdictName, RunVerdictName, StationState } from '../../realtime/station-events';
+import type { RunVerdictName, StationState } from '../../realtime/station-events';
+import { MeasurementDto } from '../../runs/dto/runs.dto';
 
 const STATES: StationState[] = ['idle', 'ready', 'testing', 'fault', 'blocked'];
 const VERDICTS: RunVerdictName[] = ['running', 'pass', 'fail', 'error', 'aborted'];
@@ -90,19 +91,20 @@ export class RepairQueueQueryDto {
   offset?: number;
 }
 
-export class RepairFailureDto {
-  @ApiProperty() stepKey!: string;
-  @ApiProperty() stepName!: string;
-  @ApiProperty() quantity!: string;
-  @ApiProperty() name!: string;
-  @ApiProperty({ type: Number, nullable: true }) value!: number | null;
-  @ApiProperty() unit!: string;
-  @ApiProperty({ type: Number, nullable: true }) lowLimit!: number | null;
-  @ApiProperty({ type: Number, nullable: true }) highLimit!: number | null;
-  @ApiProperty({ type: Number, nullable: true }) guardedLow!: number | null;
-  @ApiProperty({ type: Number, nullable: true }) guardedHigh!: number | null;
-  @ApiProperty({ enum: ['pass', 'fail', 'guard_fail'] }) verdict!: MeasurementVerdictName;
-}
+/** The first measurement of a run that did not pass: the run views' measurement fields that a repair bench needs. */
+export class RepairFailureDto extends PickType(MeasurementDto, [
+  'stepKey',
+  'stepName',
+  'quantity',
+  'name',
+  'value',
+  'unit',
+  'lowLimit',
+  'highLimit',
+  'guardedLow',
+  'guardedHigh',
+  'verdict',
+] as const) {}
 
 export class RepairRunDto {
   @ApiProperty() id!: number;

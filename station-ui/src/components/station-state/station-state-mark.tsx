@@ -1,5 +1,6 @@
 import type { StationState } from '@station-events';
 import type { CSSProperties } from 'react';
+import { DrawnShape } from '@/components/drawn-shape';
 import classes from './station-state-mark.module.css';
 import { stationStateLooks, type StationStateShape } from './station-state-look';
 
@@ -11,19 +12,7 @@ interface ShapeProps {
 /** The station-state shapes, drawn here so they stay identical at every size. */
 export function StationStateShapeIcon({ shape, size }: ShapeProps) {
   return (
-    <svg
-      width={size}
-      height={size}
-      viewBox="0 0 24 24"
-      aria-hidden="true"
-      focusable="false"
-      data-shape={shape}
-      fill="none"
-      stroke="currentColor"
-      strokeWidth={2.4}
-      strokeLinecap="round"
-      strokeLinejoin="round"
-    >
+    <DrawnShape shape={shape} size={size}>
       {shape === 'ring-dot' && (
         <>
           <circle cx="12" cy="12" r="10" />
@@ -45,7 +34,7 @@ export function StationStateShapeIcon({ shape, size }: ShapeProps) {
         </>
       )}
       {shape === 'ring' && <circle cx="12" cy="12" r="9" />}
-    </svg>
+    </DrawnShape>
   );
 }
 

@@ -1,3 +1,4 @@
+import { DrawnShape } from '@/components/drawn-shape';
 import type { VerdictShape as Shape } from '@/theme';
 
 interface VerdictShapeProps {
@@ -13,20 +14,7 @@ interface VerdictShapeProps {
  */
 export function VerdictShape({ shape, size, className }: VerdictShapeProps) {
   return (
-    <svg
-      width={size}
-      height={size}
-      viewBox="0 0 24 24"
-      aria-hidden="true"
-      focusable="false"
-      data-shape={shape}
-      className={className}
-      fill="none"
-      stroke="currentColor"
-      strokeWidth={2.4}
-      strokeLinecap="round"
-      strokeLinejoin="round"
-    >
+    <DrawnShape shape={shape} size={size} className={className}>
       {shape === 'circle-check' && (
         <>
           <circle cx="12" cy="12" r="10" />
@@ -47,6 +35,6 @@ export function VerdictShape({ shape, size, className }: VerdictShapeProps) {
         </>
       )}
       {shape === 'bar' && <path d="M4 12h16" strokeWidth={4} />}
-    </svg>
+    </DrawnShape>
   );
 }

@@ -1,10 +1,11 @@
-import { Alert, Button, Group, Modal, PasswordInput, Stack, TextInput } from '@mantine/core';
+import { Modal, PasswordInput, Stack, TextInput } from '@mantine/core';
 import { useForm } from '@mantine/form';
 import { notifications } from '@mantine/notifications';
 import { useState } from 'react';
 import type { Role } from '@/config/roles';
 import { useCreateUser } from '../api/create-user';
 import { describeAdminError } from './admin-error';
+import { ModalFooter } from './modal-footer';
 import { RolePicker } from './role-picker';
 import { checkDisplayName, checkPassword, checkRoles, checkUsername } from './user-rules';
 
@@ -82,19 +83,7 @@ export function CreateUserModal({ opened, onClose }: CreateUserModalProps) {
             onChange={(r) => form.setFieldValue('roles', r)}
             error={form.errors.roles}
           />
-          {notice && (
-            <Alert color="signalRed" variant="light" role="alert">
-              {notice}
-            </Alert>
-          )}
-          <Group justify="flex-end" gap="sm">
-            <Button variant="default" onClick={close}>
-              Cancel
-            </Button>
-            <Button type="submit" loading={create.isPending}>
-              Add user
-            </Button>
-          </Group>
+          <ModalFooter notice={notice} onCancel={close} submitLabel="Add user" submitting={create.isPending} />
         </Stack>
       </form>
     </Modal>

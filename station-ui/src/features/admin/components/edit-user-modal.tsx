@@ -1,4 +1,4 @@
-import { Alert, Button, Group, Modal, Stack, Text, TextInput } from '@mantine/core';
+import { Modal, Stack, Text, TextInput } from '@mantine/core';
 import { useForm } from '@mantine/form';
 import { notifications } from '@mantine/notifications';
 import { useEffect, useState } from 'react';
@@ -6,6 +6,7 @@ import type { Role } from '@/config/roles';
 import type { UserRow } from '../api/get-users';
 import { useUpdateUser } from '../api/update-user';
 import { describeAdminError } from './admin-error';
+import { ModalFooter } from './modal-footer';
 import { RolePicker } from './role-picker';
 import { checkDisplayName, checkRoles } from './user-rules';
 
@@ -77,19 +78,7 @@ export function EditUserModal({ user, onClose }: EditUserModalProps) {
             </Text>
             <TextInput label="Name" withAsterisk {...form.getInputProps('displayName')} />
             <RolePicker value={form.values.roles} onChange={(r) => form.setFieldValue('roles', r)} error={form.errors.roles} />
-            {notice && (
-              <Alert color="signalRed" variant="light" role="alert">
-                {notice}
-              </Alert>
-            )}
-            <Group justify="flex-end" gap="sm">
-              <Button variant="default" onClick={close}>
-                Cancel
-              </Button>
-              <Button type="submit" loading={update.isPending}>
-                Save changes
-              </Button>
-            </Group>
+            <ModalFooter notice={notice} onCancel={close} submitLabel="Save changes" submitting={update.isPending} />
           </Stack>
         </form>
       )}

@@ -1,10 +1,11 @@
-import { Alert, Button, Group, Modal, PasswordInput, Stack, Text } from '@mantine/core';
+import { Modal, PasswordInput, Stack, Text } from '@mantine/core';
 import { useForm } from '@mantine/form';
 import { notifications } from '@mantine/notifications';
 import { useState } from 'react';
 import type { UserRow } from '../api/get-users';
 import { useResetPassword } from '../api/reset-password';
 import { describeAdminError } from './admin-error';
+import { ModalFooter } from './modal-footer';
 import { checkPassword } from './user-rules';
 
 interface ResetPasswordModalProps {
@@ -55,19 +56,7 @@ export function ResetPasswordModal({ user, onClose }: ResetPasswordModalProps) {
             </Text>
             <PasswordInput label="New password" autoComplete="new-password" withAsterisk {...form.getInputProps('password')} />
             <PasswordInput label="Repeat it" autoComplete="new-password" withAsterisk {...form.getInputProps('repeat')} />
-            {notice && (
-              <Alert color="signalRed" variant="light" role="alert">
-                {notice}
-              </Alert>
-            )}
-            <Group justify="flex-end" gap="sm">
-              <Button variant="default" onClick={close}>
-                Cancel
-              </Button>
-              <Button type="submit" loading={reset.isPending}>
-                Set password
-              </Button>
-            </Group>
+            <ModalFooter notice={notice} onCancel={close} submitLabel="Set password" submitting={reset.isPending} />
           </Stack>
         </form>
       )}

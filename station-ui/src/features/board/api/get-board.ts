@@ -2,21 +2,10 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { StationState } from '@station-events';
 import { apiPaths } from '@/config/paths';
 import { api } from '@/lib/api-client';
+import type { ShiftSummary } from '@/lib/shift-summary';
 
 /** A station's shift so far, as the board and the station screen both receive it. */
-export interface BoardShift {
-  stationId: number;
-  shiftName: string;
-  shiftStart: string;
-  shiftEnd: string;
-  tested: number;
-  passed: number;
-  failed: number;
-  errors: number;
-  aborted: number;
-  firstPassYieldPct: number | null;
-  unitsPerHour: number | null;
-}
+export type BoardShift = ShiftSummary;
 
 export type BoardVerdict = 'pass' | 'fail' | 'error' | 'aborted';
 

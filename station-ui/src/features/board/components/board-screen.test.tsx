@@ -1,46 +1,20 @@
-import { act, screen, waitFor, within } from '@testing-library/react';
+import { screen, waitFor, within } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { FakeSocket, fireOn } from '@/testing/fake-socket';
 import { jsonResponse, makeUser, renderApp } from '@/testing/render';
 import { sampleBoard } from '../test-data';
 import { BoardScreen } from './board-screen';
 
-class FakeSocket {
-  handlers = new Map<string, ((...args: unknown[]) => void)[]>();
-  sent: string[] = [];
-  on(event: string, fn: (...args: unknown[]) => void) {
-    this.handlers.set(event, [...(this.handlers.get(event) ?? []), fn]);
-    return this;
-  }
-  emit(event: string, _body: unknown, ack?: (a: unknown) => void) {
-    this.sent.push(event);
-    ack?.({ ok: true, room: 'board' });
-    return this;
-  }
-  fire(event: string, ...args: unknown[]) {
-    for (const fn of this.handlers.get(event) ?? []) fn(...args);
-  }
-  removeAllListeners() {
-    this.handlers.clear();
-    return this;
-  }
-  disconnect() {
-    return this;
-  }
-}
-const sockets: FakeSocket[] = [];
+const sockets: FakeSocket<string>[] = [];
 vi.mock('@/lib/socket', () => ({
   connectLive: () => {
-    const s = new FakeSocket();
+    const s = new FakeSocket({ record: (event) => event, ackRoom: () => 'board' });
     sockets.push(s);
     return s;
   },
 }));
 
-const fire = (event: string, payload: unknown) =>
-  act(async () => {
-    sockets[sockets.length - 1]!.fire(event, payload);
-    await new Promise((r) => setTimeout(r, 0));
-  });
+const fire = (event: string, payload: unknown) => fireOn(sockets[sockets.length - 1]!, event, payload);
 
 describe('BoardScreen', () => {
   beforeEach(() => {

@@ -1,23 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { apiPaths } from '@/config/paths';
 import { api } from '@/lib/api-client';
+import type { ShiftSummary } from '@/lib/shift-summary';
 
-/** `GET /api/stations/:id/shift-summary`: this station's counts for the current shift. */
-export interface ShiftSummary {
-  stationId: number;
-  shiftName: string;
-  /** ISO 8601 */
-  shiftStart: string;
-  shiftEnd: string;
-  tested: number;
-  passed: number;
-  failed: number;
-  errors: number;
-  aborted: number;
-  /** First-pass yield in %, null before the first unit of the shift */
-  firstPassYieldPct: number | null;
-  unitsPerHour: number | null;
-}
+export type { ShiftSummary };
 
 export const shiftSummaryQueryKey = (stationId: number) => ['stations', stationId, 'shift-summary'] as const;
 

@@ -1,39 +1,18 @@
 import { act, screen, waitFor, within } from '@testing-library/react';
 import type { MeasurementJudgedPayload, RunFinishedPayload, RunStartedPayload, StationStatePayload } from '@station-events';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { FakeSocket, fireOn } from '@/testing/fake-socket';
 import { jsonResponse, makeUser, renderApp } from '@/testing/render';
 import { measurementFor, sampleRun, sampleSteps, sampleUnit } from '../test-data';
 import { StationScreen } from './station-screen';
 
-/** A stand-in for the socket.io client: records what the screen sends, lets the test play server events. */
-class FakeSocket {
-  handlers = new Map<string, ((...args: unknown[]) => void)[]>();
-  sent: { event: string; body: unknown }[] = [];
-  on(event: string, fn: (...args: unknown[]) => void) {
-    this.handlers.set(event, [...(this.handlers.get(event) ?? []), fn]);
-    return this;
-  }
-  emit(event: string, body: unknown, ack?: (a: unknown) => void) {
-    this.sent.push({ event, body });
-    ack?.({ ok: true, room: `station:${(body as { stationId?: number }).stationId}` });
-    return this;
-  }
-  fire(event: string, ...args: unknown[]) {
-    for (const fn of this.handlers.get(event) ?? []) fn(...args);
-  }
-  removeAllListeners() {
-    this.handlers.clear();
-    return this;
-  }
-  disconnect() {
-    return this;
-  }
-}
-
-const sockets: FakeSocket[] = [];
+const sockets: FakeSocket<{ event: string; body: unknown }>[] = [];
 vi.mock('@/lib/socket', () => ({
   connectLive: () => {
-    const s = new FakeSocket();
+    const s = new FakeSocket({
+      record: (event, body) => ({ event, body }),
+      ackRoom: (body) => `station:${(body as { stationId?: number }).stationId}`,
+    });
     sockets.push(s);
     return s;
   },
@@ -128,11 +107,7 @@ function serve() {
 }
 
 const live = () => sockets[sockets.length - 1]!;
-const fire = (event: string, payload: unknown) =>
-  act(async () => {
-    live().fire(event, payload);
-    await new Promise((r) => setTimeout(r, 0));
-  });
+const fire = (event: string, payload: unknown) => fireOn(live(), event, payload);
 
 async function openStation(roles: Parameters<typeof makeUser>[0] = ['operator']) {
   window.localStorage.setItem('railwright.station.id', '1');

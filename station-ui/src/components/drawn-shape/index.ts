@@ -1,0 +1,1 @@
+export { DrawnShape } from './drawn-shape';
