@@ -32,11 +32,12 @@ async function waitForScanFocus(): Promise<void> {
   await page.waitForFunction(() => document.activeElement?.getAttribute('data-testid') === 'scan-field', undefined, { timeout: 5_000 });
 }
 
-async function confirmSafetyFromKeyboard(): Promise<void> {
+async function confirmSafetyFromKeyboard(screenshotName?: string): Promise<void> {
   const dialog = page.getByRole('dialog', { name: 'Before power is applied' });
   await dialog.waitFor();
   // the prompt ignores keys in its first 350 ms (a scanner's second Enter); wait that out as a person would
   await page.waitForTimeout(450);
+  if (screenshotName) await screenshot(page, screenshotName);
   await page.keyboard.press('Enter');
   await dialog.waitFor({ state: 'detached' });
 }
@@ -101,7 +102,7 @@ describe('operator station (real browser, simulated fixture at realistic timing)
 
   it('a good unit: safety prompt from the keyboard, steps stream in, PASS', async () => {
     await scan(units.good[0]!);
-    await confirmSafetyFromKeyboard();
+    await confirmSafetyFromKeyboard('station-safety');
     await page.getByTestId('testing-serial').waitFor();
     expect(await page.getByTestId('testing-serial').innerText()).toBe(units.good[0]);
     // the rows are there before the values: count them now and again at the end
