@@ -17,6 +17,7 @@ import { UsersModule } from './users/users.module';
 import { RunsModule } from './runs/runs.module';
 import { PlansModule } from './plans/plans.module';
 import { FloorModule } from './floor/floor.module';
+import { RepairModule } from './repair/repair.module';
 
 function staticUi(): DynamicModule[] {
   const dist = loadEnv().UI_DIST;
@@ -37,6 +38,7 @@ function staticUi(): DynamicModule[] {
     RunsModule,
     PlansModule,
     FloorModule,
+    RepairModule,
     ...staticUi(),
   ],
 })

@@ -336,8 +336,11 @@ export class RunEngineService implements OnApplicationBootstrap, BeforeApplicati
       });
     }
     if (unit.state === UnitState.InRepair || unit.state === UnitState.Scrapped) {
-      const what = unit.state === UnitState.InRepair ? 'is in repair' : 'has been scrapped';
-      throw new RunRefusal('unit_not_testable', `${serial} ${what}; it cannot be tested until repair releases it.`);
+      const why =
+        unit.state === UnitState.InRepair
+          ? 'is in repair; it cannot be tested until repair returns it for retest'
+          : 'has been scrapped; it cannot be tested again';
+      throw new RunRefusal('unit_not_testable', `${serial} ${why}. Set it aside.`, { unitState: unit.state });
     }
     const retestOfPassed = unit.state === UnitState.Passed;
     if (retestOfPassed && opts.checkPassed) {
@@ -349,11 +352,14 @@ export class RunEngineService implements OnApplicationBootstrap, BeforeApplicati
         throw new RunRefusal('override_not_allowed', `Only an engineer can retest a unit that has already passed (${serial}).`);
       }
     }
-    if (unit.testCount >= plan.maxAttempts) {
+    // attempts count from the unit's last return from repair (a repaired unit gets a fresh set)
+    const attemptsUsed = unit.testCount - unit.testCountAtReturn;
+    if (attemptsUsed >= plan.maxAttempts) {
+      const since = unit.testCountAtReturn > 0 ? ' since it came back from repair' : '';
       throw new RunRefusal(
         'retest_limit',
-        `${serial} has been tested ${unit.testCount} times, the most plan ${plan.plan.code} v${plan.version} allows. Send it to repair.`,
-        { testCount: unit.testCount, maxAttempts: plan.maxAttempts },
+        `${serial} has been tested ${attemptsUsed} times${since}, the most plan ${plan.plan.code} v${plan.version} allows. Send it to repair.`,
+        { testCount: unit.testCount, attemptsUsed, maxAttempts: plan.maxAttempts },
       );
     }
     const problems = plan.steps.flatMap((s) => stepProblems(s));

@@ -34,4 +34,11 @@ export class Unit extends BaseEntity {
 
   @Property({ nullable: true })
   lastTestedAt?: Date;
+
+  /**
+   * `testCount` when repair last returned the unit for retest (0 if never): the retest limit counts only
+   * attempts above this, so a repaired unit gets a fresh set while run attempts stay numbered globally.
+   */
+  @Property()
+  testCountAtReturn: number = 0;
 }

@@ -34,6 +34,7 @@ function page(path: string, label: string, group: NavGroup, roles: readonly Role
 export const pages = {
   station: page('/station', 'Station', 'floor', ['operator', 'engineer']),
   board: page('/board', 'Board', 'floor', ['operator', 'engineer', 'quality']),
+  repair: page('/repair', 'Repair', 'floor', ['engineer', 'quality']),
   plans: page('/plans', 'Plans', 'engineering', ['engineer']),
   fixtures: page('/fixtures', 'Fixtures', 'engineering', ['engineer']),
   lots: page('/lots', 'Lots', 'engineering', ['engineer', 'quality']),
@@ -55,6 +56,8 @@ export const paths = {
     /** `next` is the address to return to after signing in. */
     href: (next?: string | null) => (next && next !== '/' ? `/sign-in?next=${encodeURIComponent(next)}` : '/sign-in'),
   },
+  /** One run with its traceability and every measurement (same roles as Runs: it sits under /runs). */
+  runDetail: { path: '/runs/:id', href: (id: number) => `/runs/${id}` },
   notFound: { path: '*' },
 } as const;
 
@@ -92,5 +95,11 @@ export const apiPaths = {
   run: (id: number) => `/runs/${id}`,
   runAbort: (id: number) => `/runs/${id}/abort`,
   runRepairTag: (id: number) => `/runs/${id}/repair-tag.pdf`,
+  // the runs list (filters: stationId, lotId, serial, verdict, from, to, limit, offset) and its filter choices
+  runs: '/runs',
+  lots: '/lots',
   board: '/board',
+  // the repair loop: the queue and one unit's repair step (receive, return for retest, scrap)
+  repairQueue: '/repair-queue',
+  unitRepair: (serial: string) => `/units/${encodeURIComponent(serial)}/repair`,
 } as const;

@@ -1,5 +1,5 @@
-import { PlaceholderPage } from '@/components/layout/placeholder-page';
+import { RunsScreen } from '@/features/runs/components/runs-screen';
 
 export default function RunsRoute() {
-  return <PlaceholderPage title="Runs" purpose="Every test run with its measurements, searchable by serial, lot and verdict." />;
+  return <RunsScreen />;
 }

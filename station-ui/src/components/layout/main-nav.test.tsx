@@ -14,11 +14,11 @@ function linkNames(): string[] {
 // Expected sets come from the task brief (role → navigation); order is the fixed order of config/paths.ts.
 const cases: [Role[], string[]][] = [
   [['operator'], ['Station', 'Board']],
-  [['engineer'], ['Station', 'Board', 'Plans', 'Fixtures', 'Lots', 'Runs']],
-  [['quality'], ['Board', 'Lots', 'Runs', 'Quality']],
-  [['admin'], ['Station', 'Board', 'Plans', 'Fixtures', 'Lots', 'Runs', 'Quality', 'Users', 'Audit log']],
-  [['operator', 'quality'], ['Station', 'Board', 'Lots', 'Runs', 'Quality']],
-  [['engineer', 'quality'], ['Station', 'Board', 'Plans', 'Fixtures', 'Lots', 'Runs', 'Quality']],
+  [['engineer'], ['Station', 'Board', 'Repair', 'Plans', 'Fixtures', 'Lots', 'Runs']],
+  [['quality'], ['Board', 'Repair', 'Lots', 'Runs', 'Quality']],
+  [['admin'], ['Station', 'Board', 'Repair', 'Plans', 'Fixtures', 'Lots', 'Runs', 'Quality', 'Users', 'Audit log']],
+  [['operator', 'quality'], ['Station', 'Board', 'Repair', 'Lots', 'Runs', 'Quality']],
+  [['engineer', 'quality'], ['Station', 'Board', 'Repair', 'Plans', 'Fixtures', 'Lots', 'Runs', 'Quality']],
   [[], []],
 ];
 

@@ -7,6 +7,7 @@ import {
   IconLayoutDashboard,
   IconPackages,
   IconPlugConnected,
+  IconTool,
   IconUsers,
   type Icon,
 } from '@tabler/icons-react';
@@ -16,6 +17,7 @@ import type { Role } from '@/config/roles';
 const icons: Record<PageKey, Icon> = {
   station: IconBarcode,
   board: IconLayoutDashboard,
+  repair: IconTool,
   plans: IconClipboardList,
   fixtures: IconPlugConnected,
   lots: IconPackages,

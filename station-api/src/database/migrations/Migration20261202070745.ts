@@ -1,6 +1,6 @@
 import { Migration } from '@mikro-orm/migrations';
 
-export class Migration20261202052338 extends Migration {
+export class Migration20261202070745 extends Migration {
 
   override async up(): Promise<void> {
     this.addSql(`create table \`fixtures\` (\`id\` integer not null primary key autoincrement, \`created_at\` datetime not null, \`updated_at\` datetime not null, \`code\` text not null, \`name\` text not null, \`port_path\` text not null, \`baud_rate\` integer not null default 115200, \`command_timeout_ms\` integer not null default 2000, \`calibrated_at\` datetime null, \`calibration_due_at\` datetime not null, \`calibration_certificate\` text null, \`voltage_uncertainty_v\` double not null default 0.005, \`current_uncertainty_a\` double not null default 0.005, \`contact_cycles_used\` integer not null default 0, \`contact_cycles_allowed\` integer not null default 50000, \`active\` integer not null default true);`);
@@ -23,7 +23,7 @@ export class Migration20261202052338 extends Migration {
     this.addSql(`create unique index \`test_plans_code_unique\` on \`test_plans\` (\`code\`);`);
     this.addSql(`create index \`test_plans_product_id_index\` on \`test_plans\` (\`product_id\`);`);
 
-    this.addSql(`create table \`units\` (\`id\` integer not null primary key autoincrement, \`created_at\` datetime not null, \`updated_at\` datetime not null, \`serial\` text not null, \`lot_id\` integer not null, \`product_id\` integer not null, \`state\` text check (\`state\` in ('untested', 'passed', 'failed', 'in_repair', 'scrapped')) not null default 'untested', \`test_count\` integer not null default 0, \`last_tested_at\` datetime null, constraint \`units_lot_id_foreign\` foreign key(\`lot_id\`) references \`lots\`(\`id\`) on update cascade, constraint \`units_product_id_foreign\` foreign key(\`product_id\`) references \`products\`(\`id\`) on update cascade);`);
+    this.addSql(`create table \`units\` (\`id\` integer not null primary key autoincrement, \`created_at\` datetime not null, \`updated_at\` datetime not null, \`serial\` text not null, \`lot_id\` integer not null, \`product_id\` integer not null, \`state\` text check (\`state\` in ('untested', 'passed', 'failed', 'in_repair', 'scrapped')) not null default 'untested', \`test_count\` integer not null default 0, \`last_tested_at\` datetime null, \`test_count_at_return\` integer not null default 0, constraint \`units_lot_id_foreign\` foreign key(\`lot_id\`) references \`lots\`(\`id\`) on update cascade, constraint \`units_product_id_foreign\` foreign key(\`product_id\`) references \`products\`(\`id\`) on update cascade);`);
     this.addSql(`create unique index \`units_serial_unique\` on \`units\` (\`serial\`);`);
     this.addSql(`create index \`units_lot_id_index\` on \`units\` (\`lot_id\`);`);
     this.addSql(`create index \`units_product_id_index\` on \`units\` (\`product_id\`);`);

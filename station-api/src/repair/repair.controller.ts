@@ -1,0 +1,28 @@
+import { Body, Controller, HttpCode, Param, Post } from '@nestjs/common';
+import { ApiBadRequestResponse, ApiBearerAuth, ApiConflictResponse, ApiNotFoundResponse, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import { AuthUser, CurrentUser } from '../common/decorators/current-user.decorator';
+import { Roles } from '../common/decorators/roles.decorator';
+import { RepairActionDto, RepairResultDto } from './dto/repair.dto';
+import { RepairService } from './repair.service';
+
+@ApiTags('repair')
+@ApiBearerAuth()
+@Controller('units')
+export class RepairController {
+  constructor(private readonly repair: RepairService) {}
+
+  @Post(':serial/repair')
+  @HttpCode(200)
+  // repair technicians hold the engineer role in this plant
+  @Roles('engineer', 'quality', 'admin')
+  @ApiOperation({
+    summary: 'Move a unit through repair: receive (failed → in_repair), return for retest (in_repair → untested, fresh attempts), scrap (failed or in_repair → scrapped). Audited with the note.',
+  })
+  @ApiOkResponse({ type: RepairResultDto })
+  @ApiBadRequestResponse({ description: 'validation: details lists the fields (action, note)' })
+  @ApiNotFoundResponse({ description: 'details.code unknown_serial' })
+  @ApiConflictResponse({ description: 'details.code bad_repair_transition (with state and allowed actions) or unit_under_test' })
+  act(@Param('serial') serial: string, @Body() dto: RepairActionDto, @CurrentUser() user: AuthUser): Promise<RepairResultDto> {
+    return this.repair.act(serial, dto, user.id);
+  }
+}

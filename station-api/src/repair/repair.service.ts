@@ -1,0 +1,86 @@
+import { EntityManager } from '@mikro-orm/sqlite';
+import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
+import { AuditService } from '../audit/audit.service';
+import { RunEngineService } from '../runs/run-engine.service';
+import { RunVerdict, TestRun } from '../runs/test-run.entity';
+import { Unit, UnitState } from '../units/unit.entity';
+import { toUnitDto } from '../units/units.service';
+import type { RepairActionDto, RepairResultDto } from './dto/repair.dto';
+import { REPAIR_AUDIT_ACTIONS, repairTransition, type UnitStateName } from './repair-transitions';
+
+// same bound as the units route: longer input is a scan error
+const MAX_SERIAL_LENGTH = 64;
+
+/**
+ * Moves a unit through the repair loop (receive, return for retest, scrap). Changes only the unit's state
+ * (and, on return, the point its retest attempts count from); runs and measurements are never touched.
+ * Each step is written to the audit trail with the technician's note: that trail is the repair record.
+ */
+@Injectable()
+export class RepairService {
+  constructor(
+    private readonly em: EntityManager,
+    private readonly audit: AuditService,
+    private readonly engine: RunEngineService,
+  ) {}
+
+  async act(rawSerial: string, dto: RepairActionDto, actorId: number): Promise<RepairResultDto> {
+    const serial = rawSerial.trim();
+    if (serial.length === 0 || serial.length > MAX_SERIAL_LENGTH) {
+      throw new BadRequestException({
+        message: `A serial has 1 to ${MAX_SERIAL_LENGTH} characters; got ${serial.length}.`,
+        details: [{ field: 'serial', problems: [`serial must have 1 to ${MAX_SERIAL_LENGTH} characters`] }],
+      });
+    }
+    // one transaction: read, check and write the state with its audit event, so two technicians acting at
+    // once cannot both move the unit from the same state (SQLite serialises the transactions)
+    return this.em.fork().transactional(async (em) => {
+      const unit = await em.findOne(Unit, { serial }, { populate: ['lot', 'product'] });
+      if (!unit) {
+        throw new NotFoundException({ message: `No unit with serial "${serial}" is registered. Check the label.`, details: { code: 'unknown_serial' } });
+      }
+      const from = unit.state;
+      const t = repairTransition(serial, from as UnitStateName, dto.action);
+      if (!t.ok) {
+        throw new ConflictException({ message: t.message, details: { code: 'bad_repair_transition', state: from, allowed: t.allowed } });
+      }
+      await this.refuseIfUnderTest(em, unit);
+
+      const before = snapshot(unit);
+      unit.state = t.to as UnitState;
+      // a returned unit starts a fresh set of attempts; run attempt numbers stay global
+      if (dto.action === 'return') unit.testCountAtReturn = unit.testCount;
+      const event = await this.audit.record(
+        {
+          actor: actorId,
+          action: REPAIR_AUDIT_ACTIONS[dto.action],
+          entityType: 'unit',
+          entityId: unit.id,
+          reason: dto.note,
+          before,
+          after: snapshot(unit),
+        },
+        em,
+      );
+      await em.flush();
+      return { action: dto.action, fromState: from, toState: unit.state, auditEventId: event.id, unit: toUnitDto(unit) };
+    });
+  }
+
+  /** A unit on a fixture right now keeps its state until the run ends (the run would overwrite it). */
+  private async refuseIfUnderTest(em: EntityManager, unit: Unit): Promise<void> {
+    const running = await em.find(TestRun, { unit: unit.id, verdict: RunVerdict.Running }, { populate: ['station'] });
+    // a row left 'running' by a crash is not a live run: only the engine's own active run counts
+    const live = running.find((r) => this.engine.activeRunOn(r.station.id)?.runId === r.id);
+    if (live) {
+      throw new ConflictException({
+        message: `${unit.serial} is being tested on station ${live.station.code} right now; wait for the run to finish.`,
+        details: { code: 'unit_under_test', runId: live.id },
+      });
+    }
+  }
+}
+
+function snapshot(u: Unit): { serial: string; state: string; testCount: number; testCountAtReturn: number } {
+  return { serial: u.serial, state: u.state, testCount: u.testCount, testCountAtReturn: u.testCountAtReturn };
+}

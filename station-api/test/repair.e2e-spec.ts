@@ -1,0 +1,169 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { AuditEvent } from '../src/audit/audit-event.entity';
+import { Measurement } from '../src/runs/measurement.entity';
+import { TestRun } from '../src/runs/test-run.entity';
+import { Unit } from '../src/units/unit.entity';
+import { createTestApp, login, TestApp } from './create-test-app';
+import { EngineHarness } from './engine-helpers';
+
+/**
+ * The repair loop against the real engine and simulated fixture: a unit with a wrong feedback divider fails
+ * up to its retest limit, goes through repair and comes back with a fresh set of attempts.
+ */
+describe('repair: POST /api/units/:serial/repair', () => {
+  let t: TestApp;
+  let h: EngineHarness;
+  const tokens: Record<string, string> = {};
+  let eol1: number;
+  let maxAttempts: number;
+  let badSerial: string;
+  let scrapSerial: string;
+  let goodSerial: string;
+  const auth = (role: string) => ({ Authorization: `Bearer ${tokens[role]}` });
+
+  const scan = (serial: string) => h.http().post(`/api/stations/${eol1}/scan`).set(auth('operator')).send({ serial });
+  const repair = (serial: string, body: Record<string, unknown>, role = 'engineer') =>
+    h.http().post(`/api/units/${encodeURIComponent(serial)}/repair`).set(auth(role)).send(body);
+  const unitRow = (serial: string) => t.orm.em.fork().findOneOrFail(Unit, { serial });
+
+  beforeAll(async () => {
+    t = await createTestApp();
+    for (const role of ['operator', 'engineer', 'quality', 'admin']) tokens[role] = await login(t.app, role);
+    h = new EngineHarness(t, tokens.operator);
+    eol1 = (await h.station('EOL-1')).id;
+    [badSerial, scrapSerial, goodSerial] = await h.freshSerials('EOL-1', 3);
+    // per-serial defect, everything else good (as the floor and engine tests do)
+    await h.simulate('FX-101', { defectRates: {}, serials: { [badSerial]: 'wrong_feedback', [scrapSerial]: 'wrong_feedback' } });
+    maxAttempts = (await scan(badSerial).expect(200)).body.plan.maxAttempts;
+    expect(maxAttempts).toBeGreaterThanOrEqual(1);
+  });
+  afterAll(async () => t?.close());
+
+  it('fails a unit up to the retest limit, then scan refuses it with retest_limit', async () => {
+    for (let i = 1; i <= maxAttempts; i++) {
+      const r = await h.run(eol1, badSerial);
+      expect(r.verdict).toBe('fail');
+      expect((await h.detail(r.runId)).attempt).toBe(i);
+    }
+    const refused = await scan(badSerial).expect(409);
+    expect(refused.body.details).toMatchObject({ code: 'retest_limit', testCount: maxAttempts, maxAttempts });
+  });
+
+  it('lists the failed unit in the repair queue as waiting (state failed)', async () => {
+    const q = (await h.http().get('/api/repair-queue').set(auth('engineer')).expect(200)).body;
+    expect(q.items.find((i: { serial: string }) => i.serial === badSerial)).toMatchObject({ state: 'failed', testCount: maxAttempts });
+  });
+
+  it('refuses the operator role with 403 and changes nothing', async () => {
+    const res = await repair(badSerial, { action: 'receive', note: 'bench 2' }, 'operator').expect(403);
+    expect(res.body.statusCode).toBe(403);
+    await h.http().post(`/api/units/${badSerial}/repair`).send({ action: 'receive', note: 'bench 2' }).expect(401);
+    expect((await unitRow(badSerial)).state).toBe('failed');
+  });
+
+  it('refuses a missing or too short note and an unknown action with 400 naming the field', async () => {
+    const missing = await repair(badSerial, { action: 'receive' }).expect(400);
+    expect(missing.body.details).toEqual([{ field: 'note', problems: expect.arrayContaining(['note must be 3 to 500 characters']) }]);
+    expect(missing.body.message).toContain('note');
+    const blank = await repair(badSerial, { action: 'receive', note: '   ' }).expect(400);
+    expect(blank.body.details[0].field).toBe('note');
+    const long = await repair(badSerial, { action: 'receive', note: 'x'.repeat(501) }).expect(400);
+    expect(long.body.details[0].field).toBe('note');
+    const action = await repair(badSerial, { action: 'fix', note: 'bench 2' }).expect(400);
+    expect(action.body.details).toEqual([{ field: 'action', problems: ['action must be one of receive, return, scrap'] }]);
+    const extra = await repair(badSerial, { action: 'receive', note: 'bench 2', state: 'passed' }).expect(400);
+    expect(extra.body.message).toContain('Unknown field "state"');
+    expect((await unitRow(badSerial)).state).toBe('failed');
+  });
+
+  it('refuses an unknown serial with 404', async () => {
+    const res = await repair('K5A-2648-99998', { action: 'receive', note: 'bench 2' }).expect(404);
+    expect(res.body.details.code).toBe('unknown_serial');
+  });
+
+  it('refuses a transition the state does not allow with 409 bad_repair_transition, naming the state and what is allowed', async () => {
+    const res = await repair(badSerial, { action: 'return', note: 'looks fine' }).expect(409);
+    expect(res.body.details).toEqual({ code: 'bad_repair_transition', state: 'failed', allowed: ['receive', 'scrap'] });
+    expect(res.body.message).toMatch(/is failed and waiting for repair, so it cannot be returned for retest\. .*receive it into repair or scrap it/);
+    const untested = await repair(goodSerial, { action: 'scrap', note: 'dropped' }, 'quality').expect(409);
+    expect(untested.body.details).toMatchObject({ code: 'bad_repair_transition', state: 'untested', allowed: [] });
+  });
+
+  it('receives the unit: in_repair, shown in the queue, refused at scan as "in repair"', async () => {
+    const res = await repair(badSerial, { action: 'receive', note: '  on bench 2, Vout high  ' }).expect(200);
+    expect(res.body).toMatchObject({ action: 'receive', fromState: 'failed', toState: 'in_repair', unit: { serial: badSerial, state: 'in_repair' } });
+    const refused = await scan(badSerial).expect(409);
+    expect(refused.body.details.code).toBe('unit_not_testable');
+    expect(refused.body.message).toContain('in repair');
+    const q = (await h.http().get('/api/repair-queue').set(auth('operator')).expect(200)).body;
+    expect(q.items.find((i: { serial: string }) => i.serial === badSerial)).toMatchObject({ state: 'in_repair' });
+    // receiving twice is not a transition
+    expect((await repair(badSerial, { action: 'receive', note: 'again' }).expect(409)).body.details.allowed).toEqual(['return', 'scrap']);
+  });
+
+  it('returns the unit for retest with a fresh set of attempts; run attempts keep counting globally; runs are untouched', async () => {
+    const em = t.orm.em.fork();
+    const unit = await unitRow(badSerial);
+    const runsBefore = await em.find(TestRun, { unit: unit.id }, { orderBy: { id: 'asc' } });
+    const measurementsBefore = await em.count(Measurement, { run: { $in: runsBefore.map((r) => r.id) } });
+
+    const res = await repair(badSerial, { action: 'return', note: 'replaced R12 feedback divider' }, 'admin').expect(200);
+    expect(res.body).toMatchObject({ fromState: 'in_repair', toState: 'untested', unit: { state: 'untested', testCount: maxAttempts } });
+    expect(await unitRow(badSerial)).toMatchObject({ testCountAtReturn: maxAttempts });
+
+    const ok = await scan(badSerial).expect(200);
+    expect(ok.body.attempt).toBe(maxAttempts + 1);
+    // the simulator still has the defect, so the retest fails: the attempt number is global n+1
+    const r = await h.run(eol1, badSerial);
+    expect(r.verdict).toBe('fail');
+    expect((await h.detail(r.runId)).attempt).toBe(maxAttempts + 1);
+    // one attempt used of the fresh set: another retest is allowed unless the plan allows only one
+    if (maxAttempts > 1) expect((await scan(badSerial).expect(200)).body.attempt).toBe(maxAttempts + 2);
+
+    const em2 = t.orm.em.fork();
+    const runsAfter = await em2.find(TestRun, { id: { $in: runsBefore.map((x) => x.id) } }, { orderBy: { id: 'asc' } });
+    expect(runsAfter.map((x) => [x.id, x.attempt, x.verdict, x.finishedAt?.getTime()])).toEqual(
+      runsBefore.map((x) => [x.id, x.attempt, x.verdict, x.finishedAt?.getTime()]),
+    );
+    expect(await em2.count(Measurement, { run: { $in: runsBefore.map((x) => x.id) } })).toBe(measurementsBefore);
+  });
+
+  it('counts the retest limit from the return: after maxAttempts more failures the unit is refused again', async () => {
+    for (let i = 2; i <= maxAttempts; i++) expect((await h.run(eol1, badSerial)).verdict).toBe('fail');
+    const refused = await scan(badSerial).expect(409);
+    expect(refused.body.details).toMatchObject({ code: 'retest_limit', testCount: 2 * maxAttempts, attemptsUsed: maxAttempts, maxAttempts });
+    expect(refused.body.message).toContain('since it came back from repair');
+  });
+
+  it('scraps a failed unit (quality); the scan refuses it as scrapped and nothing moves it on', async () => {
+    expect((await h.run(eol1, scrapSerial)).verdict).toBe('fail');
+    const res = await repair(scrapSerial, { action: 'scrap', note: 'cracked inductor, not worth rework' }, 'quality').expect(200);
+    expect(res.body).toMatchObject({ fromState: 'failed', toState: 'scrapped' });
+    const refused = await scan(scrapSerial).expect(409);
+    expect(refused.body.details.code).toBe('unit_not_testable');
+    expect(refused.body.message).toContain('scrapped');
+    const again = await repair(scrapSerial, { action: 'return', note: 'try again' }).expect(409);
+    expect(again.body).toMatchObject({ details: { code: 'bad_repair_transition', state: 'scrapped', allowed: [] } });
+    expect(again.body.message).toMatch(/stays scrapped/);
+    const q = (await h.http().get('/api/repair-queue').set(auth('operator')).expect(200)).body;
+    expect(q.items.map((i: { serial: string }) => i.serial)).not.toContain(scrapSerial);
+  });
+
+  it('writes one audit event per transition with before/after state, the note as reason and the actor', async () => {
+    const em = t.orm.em.fork();
+    const bad = await unitRow(badSerial);
+    const events = await em.find(AuditEvent, { entityType: 'unit', entityId: String(bad.id) }, { orderBy: { id: 'asc' }, populate: ['actor'] });
+    expect(events.map((e) => [e.action, e.before?.state, e.after?.state, e.reason, e.actor?.username])).toEqual([
+      ['unit.repair_received', 'failed', 'in_repair', 'on bench 2, Vout high', 'engineer'],
+      ['unit.repair_returned', 'in_repair', 'untested', 'replaced R12 feedback divider', 'admin'],
+    ]);
+    expect(events[1].after).toMatchObject({ serial: badSerial, testCount: maxAttempts, testCountAtReturn: maxAttempts });
+    const scrap = await unitRow(scrapSerial);
+    const scrapEvents = await em.find(AuditEvent, { entityType: 'unit', entityId: String(scrap.id) });
+    expect(scrapEvents.map((e) => [e.action, e.before?.state, e.after?.state, e.reason])).toEqual([
+      ['unit.scrapped', 'failed', 'scrapped', 'cracked inductor, not worth rework'],
+    ]);
+    // refused requests leave no trace
+    expect(await em.count(AuditEvent, { action: { $like: 'unit.%' } })).toBe(3);
+  });
+});

@@ -1,0 +1,80 @@
+import { formatFigure } from '@/components/figure';
+import { isApiError } from '@/lib/api-client';
+import type { RepairAction } from './api/repair-unit';
+
+/** Limits of the note, as the server checks them (station-api repair.dto.ts). */
+export const NOTE_MIN = 3;
+export const NOTE_MAX = 500;
+
+/** What each repair step is called on the buttons and in the dialog. */
+export const ACTION_WORDS: Record<RepairAction, { button: string; title: string; submit: string; done: string }> = {
+  receive: { button: 'Receive', title: 'Receive into repair', submit: 'Receive', done: 'is now in repair' },
+  return: { button: 'Return for retest', title: 'Return for retest', submit: 'Return for retest', done: 'may be tested again, with a fresh set of attempts' },
+  scrap: { button: 'Scrap', title: 'Scrap this unit', submit: 'Scrap for good', done: 'is scrapped' },
+};
+
+/** The steps a unit in the queue can take (mirrors the server's rule; the server has the last word). */
+export function actionsFor(state: 'failed' | 'in_repair'): RepairAction[] {
+  return state === 'failed' ? ['receive', 'scrap'] : ['return', 'scrap'];
+}
+
+/** The note's problem in words, or null when it is fine. */
+export function checkNote(note: string): string | null {
+  const n = note.trim().length;
+  if (n === 0) return 'Write what you found or did; the note is the repair record.';
+  if (n < NOTE_MIN) return `Write at least ${NOTE_MIN} characters.`;
+  if (n > NOTE_MAX) return `Keep it to ${NOTE_MAX} characters (now ${n}).`;
+  return null;
+}
+
+/** A refused repair step in our words; the server's sentence where it already names the state. */
+export function describeRepairError(error: unknown): string {
+  if (!isApiError(error)) return 'The repair step could not be sent. Try again.';
+  if (error.status === 0) return error.message;
+  if (error.status === 403) return 'Only engineers, quality staff and administrators can take repair steps.';
+  if (error.status === 404) return 'This serial is not registered any more. Reload the queue.';
+  if (error.code === 'bad_repair_transition') return `${error.message} The queue has been reloaded.`;
+  if (error.code === 'unit_under_test') return error.message;
+  if (error.status === 400 && error.fieldProblems.length > 0) {
+    return error.fieldProblems.map((p) => `${p.field}: ${p.problems.join('; ')}`).join(' · ');
+  }
+  return error.message;
+}
+
+const has = (v: number | null | undefined): v is number => typeof v === 'number' && Number.isFinite(v);
+
+/** Decimals: V three, % and mV one (ui-design.md); the same rule the station and runs screens follow. */
+function digitsFor(quantity: string, unit: string): number {
+  if (quantity.startsWith('efficiency')) return 1;
+  if (unit === '%') return 2;
+  if (unit === 'V' || unit === 'A') return 3;
+  if (unit === 'mV' || unit === 'mA' || unit === 'µs') return 1;
+  return 2;
+}
+
+/** "5.412 V" for a value; yes/no results (unit `flag`) as words. */
+export function formatMeasured(value: number | null, quantity: string, unit: string): string {
+  if (unit === 'flag') return has(value) ? (value >= 0.5 ? 'yes' : 'no') : '—';
+  if (!has(value)) return 'no value';
+  return `${formatFigure(value, digitsFor(quantity, unit))} ${unit}`.trim();
+}
+
+/** Limits as `low … high unit`, one-sided as `≤ high` / `≥ low`. */
+export function formatLimitRange(low: number | null, high: number | null, quantity: string, unit: string): string {
+  if (unit === 'flag') return has(low) && low >= 0.5 ? 'must be yes' : 'must be no';
+  const d = digitsFor(quantity, unit);
+  const u = unit ? ` ${unit}` : '';
+  if (has(low) && has(high)) return `${formatFigure(low, d)} … ${formatFigure(high, d)}${u}`;
+  if (has(high)) return `≤ ${formatFigure(high, d)}${u}`;
+  if (has(low)) return `≥ ${formatFigure(low, d)}${u}`;
+  return 'no limit';
+}
+
+const p2 = (n: number) => String(n).padStart(2, '0');
+
+/** Local "yyyy-mm-dd hh:mm". */
+export function formatWhen(iso: string): string {
+  const d = new Date(iso);
+  if (Number.isNaN(d.getTime())) return iso;
+  return `${d.getFullYear()}-${p2(d.getMonth() + 1)}-${p2(d.getDate())} ${p2(d.getHours())}:${p2(d.getMinutes())}`;
+}

@@ -1,0 +1,102 @@
+import { screen, within } from '@testing-library/react';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { jsonResponse, makeUser, renderApp } from '@/testing/render';
+import type { RunDetail } from '../api/get-run';
+import { makeRunDetail } from '../test-data';
+import { RunDetailScreen } from './run-detail-screen';
+
+function serve(detail: RunDetail) {
+  vi.stubGlobal(
+    'fetch',
+    vi.fn(async (input: RequestInfo | URL) => {
+      const url = new URL(String(input), 'http://x');
+      if (url.pathname === `/api/runs/${detail.id}`) return jsonResponse(200, detail);
+      return jsonResponse(404, { message: 'There is no run with that id.' });
+    }),
+  );
+}
+
+beforeEach(() => serve(makeRunDetail()));
+afterEach(() => vi.unstubAllGlobals());
+
+const renderDetail = (runId = 41) => renderApp(<RunDetailScreen runId={runId} />, { route: `/runs/${runId}`, signedInAs: makeUser(['quality']) });
+
+describe('RunDetailScreen', () => {
+  it('heads the page with serial, verdict word and shape, product, lot and station', async () => {
+    const { container } = renderDetail();
+    expect(await screen.findByTestId('run-serial')).toHaveTextContent('K5A-2648-00002');
+    const header = container.querySelector('[data-verdict="fail"]');
+    expect(header).toHaveTextContent('FAIL');
+    expect(header?.querySelector('svg')).toHaveAttribute('data-shape', 'square-cross');
+    expect(screen.getByTestId('run-context')).toHaveTextContent('OB-BK0503 · lot LB-2648-01 · EOL-1');
+    expect(screen.getByRole('button', { name: 'Repair tag (PDF)' })).toBeInTheDocument();
+  });
+
+  it('shows the traceability fields stored with the run', async () => {
+    renderDetail();
+    await screen.findByTestId('run-serial');
+    expect(screen.getByTestId('trace-plan')).toHaveTextContent('TP-BK0503 v2');
+    expect(screen.getByTestId('trace-fixture')).toHaveTextContent('FX-01');
+    expect(screen.getByTestId('trace-fixture-identity')).toHaveTextContent('Orrin Bay,EOL-FIXTURE,FX-01,1.4.0');
+    expect(screen.getByTestId('trace-calibration')).toHaveTextContent(/2026-09-(29|30)/);
+    expect(screen.getByTestId('trace-cycles')).toHaveTextContent('12345');
+    expect(screen.getByTestId('trace-operator')).toHaveTextContent('Ada Operator');
+    expect(screen.getByTestId('trace-attempt')).toHaveTextContent('1');
+    expect(screen.getByTestId('trace-override')).toHaveTextContent('none');
+  });
+
+  it('marks a calibration that had lapsed at the time, an override and an error message', async () => {
+    serve(
+      makeRunDetail({
+        verdict: 'error',
+        attempt: 2,
+        fixtureCalibrationDueAt: '2026-02-01T00:00:00.000Z',
+        overrideReason: 'Retest after fixture swap',
+        overrideByName: 'Eli Engineer',
+        errorMessage: 'The fixture stopped answering during the ripple step.',
+      }),
+    );
+    renderDetail();
+    await screen.findByTestId('run-serial');
+    expect(screen.getByTestId('trace-calibration')).toHaveTextContent('overdue when tested');
+    expect(screen.getByTestId('trace-override')).toHaveTextContent('“Retest after fixture swap” — Eli Engineer');
+    expect(screen.getByTestId('trace-error')).toHaveTextContent('The fixture stopped answering');
+    expect(screen.getByTestId('trace-attempt')).toHaveTextContent('2 (retest)');
+    // only a failed run has a repair tag (the server refuses one for error runs)
+    expect(screen.queryByRole('button', { name: 'Repair tag (PDF)' })).toBeNull();
+  });
+
+  it('shows every measurement with value, limits, guarded limits and U; a guard-band fail in its own words', async () => {
+    renderDetail();
+    const table = await screen.findByRole('table', { name: 'Measurements' });
+    const [, passRow, guardRow] = within(table).getAllByRole('row');
+    expect(passRow).toHaveTextContent('3.300 V');
+    expect(passRow).toHaveTextContent('3.250 … 3.350 V');
+    expect(passRow).toHaveTextContent('same as spec');
+    expect(passRow).toHaveTextContent('PASS');
+    expect(guardRow).toHaveTextContent('3.348 V');
+    expect(guardRow).toHaveTextContent('3.254 … 3.346 V');
+    expect(guardRow).toHaveTextContent('0.004 V');
+    expect(within(guardRow!).getByText('FAIL')).toBeInTheDocument();
+    expect(guardRow).toHaveTextContent('inside spec, outside guard band');
+    expect(guardRow?.querySelector('span[data-verdict="guard_fail"] svg')).toHaveAttribute('data-shape', 'square-cross');
+    expect(within(table).getAllByText('inside spec, outside guard band')).toHaveLength(1);
+  });
+
+  it('unfolds the raw readings as pretty-printed JSON', async () => {
+    const { user } = renderDetail();
+    await screen.findByRole('table', { name: 'Measurements' });
+    const toggle = screen.getByRole('button', { name: 'Show raw readings of Output voltage' });
+    expect(toggle).toHaveAttribute('aria-expanded', 'false');
+    await user.click(toggle);
+    const raw = screen.getByLabelText('Raw readings of Output voltage');
+    expect(raw.textContent).toBe(JSON.stringify({ samples: [3.301, 3.299], dmmRange: '10V' }, null, 2));
+    await user.click(screen.getByRole('button', { name: 'Hide raw readings of Output voltage' }));
+    expect(screen.queryByLabelText('Raw readings of Output voltage')).toBeNull();
+  });
+
+  it('says so when the run does not exist', async () => {
+    renderDetail(999);
+    expect(await screen.findByRole('alert')).toHaveTextContent('There is no run with that id.');
+  });
+});

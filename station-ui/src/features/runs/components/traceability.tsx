@@ -1,0 +1,112 @@
+import { Alert, Paper, SimpleGrid, Title } from '@mantine/core';
+import { IconAlertTriangle } from '@tabler/icons-react';
+import type { ReactNode } from 'react';
+import type { RunView } from '@station-events';
+import { formatDay, formatDuration, formatStamp } from '../format';
+import classes from './run-detail.module.css';
+
+function Field({ label, children, mono = false, testId }: { label: string; children: ReactNode; mono?: boolean; testId?: string }) {
+  return (
+    <div className={classes.field}>
+      <dt className={classes.fieldLabel}>{label}</dt>
+      <dd className={mono ? classes.monoValue : classes.value} data-testid={testId}>
+        {children}
+      </dd>
+    </div>
+  );
+}
+
+function FieldGroup({ title, children }: { title: string; children: ReactNode }) {
+  return (
+    <div className={classes.group}>
+      <h3 className={classes.groupTitle}>{title}</h3>
+      <dl className={classes.list} aria-label={title}>
+        {children}
+      </dl>
+    </div>
+  );
+}
+
+const missing = <span className={classes.dim}>not recorded</span>;
+
+/** True when the fixture's calibration had already run out when the run started. */
+export function calibrationLapsed(run: Pick<RunView, 'startedAt' | 'fixtureCalibrationDueAt'>): boolean {
+  if (!run.fixtureCalibrationDueAt) return false;
+  return new Date(run.fixtureCalibrationDueAt).getTime() < new Date(run.startedAt).getTime();
+}
+
+/**
+ * What the run was made with and by whom, as stored with the run (not as the plan or fixture stand today),
+ * so a quality question about one unit is answered from this block alone.
+ */
+export function Traceability({ run }: { run: RunView }) {
+  return (
+    <Paper withBorder radius="md" p="md" mb="lg" component="section" aria-labelledby="trace-title">
+      <Title order={2} fz="lg" mb="sm" id="trace-title">
+        Traceability
+      </Title>
+      <SimpleGrid cols={{ base: 1, sm: 2, lg: 4 }} spacing="lg">
+        <FieldGroup title="Test plan">
+          <Field label="Plan" mono testId="trace-plan">
+            {run.planCode} v{run.planVersion}
+          </Field>
+          <Field label="Plan version id" mono>
+            {run.planVersionId}
+          </Field>
+        </FieldGroup>
+        <FieldGroup title="Fixture at the time">
+          <Field label="Fixture" mono testId="trace-fixture">
+            {run.fixtureCode}
+          </Field>
+          <Field label="Identity reported" mono testId="trace-fixture-identity">
+            {run.fixtureIdentity ?? missing}
+          </Field>
+          <Field label="Calibration due" mono testId="trace-calibration">
+            {run.fixtureCalibrationDueAt ? formatDay(run.fixtureCalibrationDueAt) : missing}
+            {calibrationLapsed(run) && <span className={classes.warn}> (overdue when tested)</span>}
+          </Field>
+          <Field label="Contact cycles" mono testId="trace-cycles">
+            {run.fixtureContactCycles ?? missing}
+          </Field>
+        </FieldGroup>
+        <FieldGroup title="Who and when">
+          <Field label="Operator" testId="trace-operator">
+            {run.operatorName}
+          </Field>
+          <Field label="Started" mono testId="trace-started">
+            {formatStamp(run.startedAt)}
+          </Field>
+          <Field label="Finished" mono testId="trace-finished">
+            {run.finishedAt ? formatStamp(run.finishedAt) : <span className={classes.dim}>still testing</span>}
+          </Field>
+          <Field label="Duration" mono>
+            {formatDuration(run.durationMs)}
+          </Field>
+        </FieldGroup>
+        <FieldGroup title="This unit">
+          <Field label="Attempt" mono testId="trace-attempt">
+            {run.attempt}
+            {run.attempt > 1 && <span className={classes.dim}> (retest)</span>}
+          </Field>
+          <Field label="Failed step" mono>
+            {run.failedStepKey ?? <span className={classes.dim}>none</span>}
+          </Field>
+          <Field label="Retest override" testId="trace-override">
+            {run.overrideReason ? (
+              <>
+                “{run.overrideReason}”{run.overrideByName && <span className={classes.dim}> — {run.overrideByName}</span>}
+              </>
+            ) : (
+              <span className={classes.dim}>none</span>
+            )}
+          </Field>
+        </FieldGroup>
+      </SimpleGrid>
+      {run.errorMessage && (
+        <Alert mt="md" color="signalAmber" variant="light" title="Error recorded with the run" icon={<IconAlertTriangle aria-hidden />} data-testid="trace-error">
+          {run.errorMessage}
+        </Alert>
+      )}
+    </Paper>
+  );
+}
