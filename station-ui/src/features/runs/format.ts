@@ -1,56 +1,7 @@
-import { formatFigure } from '@/components/figure';
 
-/*
- * Number formatting for stored runs. The same rules as the operator screen (ui-design.md: V with three
- * decimals, % with one for efficiency, mV with one); kept here because features do not import each other.
- */
-
-/** Yes/no results (protection steps) travel as 1/0 with this unit (station-api plan-quantities.ts). */
-export const FLAG_UNIT = 'flag';
-
-/** Decimals per quantity; regulation sits near 0.1 %, so % gets two unless it is an efficiency. */
-export function digitsFor(quantity: string, unit: string): number {
-  const base = quantity.split('@')[0] ?? quantity;
-  if (base.startsWith('efficiency')) return 1;
-  if (unit === '%') return 2;
-  if (unit === 'V' || unit === 'A') return 3;
-  if (unit === 'mV' || unit === 'mA' || unit === 'µs' || unit === 'us') return 1;
-  return 2;
-}
+export { digitsFor, FLAG_UNIT, formatLimits, formatValue, guardDiffers } from '@/lib/measurement-format';
 
 const has = (v: number | null | undefined): v is number => typeof v === 'number' && Number.isFinite(v);
-
-/** A stored value as text and unit; a yes/no result as a word. */
-export function formatValue(value: number | null | undefined, quantity: string, unit: string): { text: string; unit: string } {
-  if (unit === FLAG_UNIT) return { text: has(value) ? (value >= 0.5 ? 'yes' : 'no') : '—', unit: '' };
-  const text = formatFigure(value, digitsFor(quantity, unit));
-  return { text, unit: text === '—' ? '' : unit };
-}
-
-/** Limits as `low … high`; one-sided as `≤ high` / `≥ low`. Both bounds inclusive, as in the plan files. */
-export function formatLimits(low: number | null | undefined, high: number | null | undefined, quantity: string, unit: string): string {
-  if (unit === FLAG_UNIT) {
-    if (has(low) && has(high) && low === high) return low >= 0.5 ? 'must be yes' : 'must be no';
-    return 'yes or no';
-  }
-  const d = digitsFor(quantity, unit);
-  const u = unit ? ` ${unit}` : '';
-  if (has(low) && has(high)) return `${formatFigure(low, d)} … ${formatFigure(high, d)}${u}`;
-  if (has(high)) return `≤ ${formatFigure(high, d)}${u}`;
-  if (has(low)) return `≥ ${formatFigure(low, d)}${u}`;
-  return 'no limit';
-}
-
-/** True when the guarded acceptance limits are narrower than the specification, so worth showing. */
-export function guardDiffers(
-  low: number | null | undefined,
-  high: number | null | undefined,
-  guardedLow: number | null | undefined,
-  guardedHigh: number | null | undefined,
-): boolean {
-  const differs = (a: number | null | undefined, b: number | null | undefined) => has(b) && (!has(a) || Math.abs(a - b) > 1e-12);
-  return differs(low, guardedLow) || differs(high, guardedHigh);
-}
 
 /** Run length as "8.4 s" under a minute, "1:05" (min:s) above; a dash while still running. */
 export function formatDuration(ms: number | null | undefined): string {

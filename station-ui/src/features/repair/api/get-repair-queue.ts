@@ -1,21 +1,13 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { MeasurementView } from '@station-events';
 import { apiPaths } from '@/config/paths';
 import { api } from '@/lib/api-client';
 
 /** The first measurement of the last failing run that did not pass (station-api floor.dto.ts RepairFailureDto). */
-export interface RepairFailure {
-  stepKey: string;
-  stepName: string;
-  quantity: string;
-  name: string;
-  value: number | null;
-  unit: string;
-  lowLimit: number | null;
-  highLimit: number | null;
-  guardedLow: number | null;
-  guardedHigh: number | null;
-  verdict: string;
-}
+export type RepairFailure = Pick<
+  MeasurementView,
+  'stepKey' | 'stepName' | 'quantity' | 'name' | 'value' | 'unit' | 'lowLimit' | 'highLimit' | 'guardedLow' | 'guardedHigh' | 'verdict'
+>;
 
 /** One unit in `GET /api/repair-queue`: failed (waiting) or in repair (received on the bench). */
 export interface RepairQueueItem {

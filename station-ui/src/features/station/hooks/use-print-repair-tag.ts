@@ -1,5 +1,5 @@
 import { useCallback, useEffect, useRef, useState } from 'react';
-import { getRepairTag } from '../api/get-repair-tag';
+import { getRepairTag } from '@/lib/repair-tag';
 
 export type PrintState =
   | { kind: 'idle' }

@@ -14,7 +14,7 @@ export async function getRepairTag(runId: number, signal?: AbortSignal): Promise
       signal,
     });
   } catch {
-    throw new ApiError(0, 'Network Error', 'The station server cannot be reached, so the repair tag could not be opened.');
+    throw new ApiError(0, 'Network Error', 'The station server cannot be reached, so the repair tag could not be fetched.');
   }
   if (!res.ok) {
     let message = `The repair tag could not be made (HTTP ${res.status}).`;
