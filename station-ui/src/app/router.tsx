@@ -1,6 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
 import type { ComponentType } from 'react';
-import { createBrowserRouter, type RouteObject } from 'react-router';
+import { createBrowserRouter, type RouteObject } from 'react-router-dom';
 import { pages, paths } from '@/config/paths';
 import { setUnauthorizedHandler } from '@/lib/api-client';
 import { clearSession, sessionNotice } from '@/lib/auth';

@@ -1,7 +1,7 @@
 import { Center, Loader, Stack, Text } from '@mantine/core';
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef } from 'react';
-import { Navigate, Outlet, useLocation } from 'react-router';
+import { Navigate, Outlet, useLocation } from 'react-router-dom';
 import { ErrorNotice } from '@/components/errors/error-notice';
 import { AppLayout } from '@/components/layout/app-layout';
 import { NotAllowed } from '@/components/layout/not-allowed';

@@ -1,4 +1,4 @@
-import { Navigate } from 'react-router';
+import { Navigate } from 'react-router-dom';
 import { homePathFor, useUser } from '@/lib/auth';
 
 /** The bare address sends each person to their own start page. */

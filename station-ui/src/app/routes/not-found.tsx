@@ -1,5 +1,5 @@
 import { Button, Paper, Text, Title } from '@mantine/core';
-import { Link, useLocation } from 'react-router';
+import { Link, useLocation } from 'react-router-dom';
 import { paths } from '@/config/paths';
 
 export default function NotFoundRoute() {

@@ -1,6 +1,6 @@
 import { Alert, Button, Container, Text } from '@mantine/core';
 import { IconAlertCircle } from '@tabler/icons-react';
-import { isRouteErrorResponse, useRouteError } from 'react-router';
+import { isRouteErrorResponse, useRouteError } from 'react-router-dom';
 import { NotAllowed } from '@/components/layout/not-allowed';
 import { isApiError } from '@/lib/api-client';
 

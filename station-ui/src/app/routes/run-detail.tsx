@@ -1,4 +1,4 @@
-import { useParams } from 'react-router';
+import { useParams } from 'react-router-dom';
 import { RunDetailScreen } from '@/features/runs/components/run-detail-screen';
 import NotFoundRoute from './not-found';
 

@@ -1,5 +1,5 @@
 import { useEffect } from 'react';
-import { Navigate, useNavigate, useSearchParams } from 'react-router';
+import { Navigate, useNavigate, useSearchParams } from 'react-router-dom';
 import { pageForPathname, safeNextPath } from '@/config/paths';
 import { SignInPage } from '@/features/auth/components/sign-in-page';
 import { canOpen, homePathFor, sessionNotice, useUser, type AuthUser } from '@/lib/auth';

@@ -2,7 +2,7 @@ import { ActionIcon, AppShell, Badge, Box, Burger, Button, Group } from '@mantin
 import { useDisclosure } from '@mantine/hooks';
 import { IconLogout } from '@tabler/icons-react';
 import type { ReactNode } from 'react';
-import { Link } from 'react-router';
+import { Link } from 'react-router-dom';
 import { paths } from '@/config/paths';
 import { roleLabels } from '@/config/roles';
 import type { AuthUser } from '@/lib/auth';

@@ -1,6 +1,6 @@
 import { NavLink, Stack, Text } from '@mantine/core';
-import { NavLink as RouterLink, useLocation } from 'react-router';
-import { matchPath } from 'react-router';
+import { NavLink as RouterLink, useLocation } from 'react-router-dom';
+import { matchPath } from 'react-router-dom';
 import type { Role } from '@/config/roles';
 import classes from './app-layout.module.css';
 import { navSectionsFor } from './nav-items';

@@ -1,5 +1,5 @@
 import { screen } from '@testing-library/react';
-import { Route, Routes, useLocation } from 'react-router';
+import { Route, Routes, useLocation } from 'react-router-dom';
 import { describe, expect, it, vi } from 'vitest';
 import { AppRoot } from '@/app/routes/app-root';
 import { ErrorNotice } from '@/components/errors/error-notice';

@@ -1,6 +1,6 @@
 import { Button, Group, Paper, Text, ThemeIcon, Title } from '@mantine/core';
 import { IconLock } from '@tabler/icons-react';
-import { Link, useLocation } from 'react-router';
+import { Link, useLocation } from 'react-router-dom';
 import { pageForPathname } from '@/config/paths';
 import { describeRoles, roleLabels, type Role } from '@/config/roles';
 import { homePathFor, useUser } from '@/lib/auth';

@@ -2,7 +2,7 @@ import { Button, Code, Group, Pagination, Paper, Skeleton, Stack, Table, Text, T
 import { useForm } from '@mantine/form';
 import { IconFilter, IconX } from '@tabler/icons-react';
 import { useEffect } from 'react';
-import { useSearchParams } from 'react-router';
+import { useSearchParams } from 'react-router-dom';
 import { ErrorNotice } from '@/components/errors/error-notice';
 import { PageHeader } from '@/components/layout/page-header';
 import { useAudit, type AuditEntry, type AuditFilters } from '../api/get-audit';

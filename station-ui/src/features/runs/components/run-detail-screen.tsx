@@ -1,6 +1,6 @@
 import { Anchor, Alert, Button, Group, Paper, Skeleton, Stack, Text, Title } from '@mantine/core';
 import { IconArrowLeft, IconFileTypePdf } from '@tabler/icons-react';
-import { Link } from 'react-router';
+import { Link } from 'react-router-dom';
 import { ErrorNotice } from '@/components/errors/error-notice';
 import { pages } from '@/config/paths';
 import { useRun } from '../api/get-run';

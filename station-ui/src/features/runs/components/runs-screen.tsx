@@ -1,7 +1,7 @@
 import { Button, Group, Pagination, Paper, Select, Skeleton, Stack, Table, Text, TextInput } from '@mantine/core';
 import { IconSearch, IconX } from '@tabler/icons-react';
 import { useEffect, useState, type KeyboardEvent } from 'react';
-import { Link, useNavigate, useSearchParams } from 'react-router';
+import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import type { RunView } from '@station-events';
 import { ErrorNotice } from '@/components/errors/error-notice';
 import { PageHeader } from '@/components/layout/page-header';
