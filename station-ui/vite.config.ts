@@ -7,7 +7,13 @@ const apiTarget = 'http://localhost:3000';
 
 export default defineConfig({
   plugins: [react()],
-  resolve: { alias: { '@': fileURLToPath(new URL('./src', import.meta.url)) } },
+  resolve: {
+    alias: {
+      '@': fileURLToPath(new URL('./src', import.meta.url)),
+      // pure modules the server and the screens share (value formatting); see station-api/src/contract
+      '@contract': fileURLToPath(new URL('../station-api/src/contract', import.meta.url)),
+    },
+  },
   server: {
     proxy: {
       '/api': { target: apiTarget, changeOrigin: true },

@@ -5,7 +5,13 @@ import { defineConfig } from 'vitest/config';
 /** Unit tests in jsdom. The real-browser tests have their own config (vitest.e2e.config.ts). */
 export default defineConfig({
   plugins: [react()],
-  resolve: { alias: { '@': fileURLToPath(new URL('./src', import.meta.url)) } },
+  resolve: {
+    alias: {
+      '@': fileURLToPath(new URL('./src', import.meta.url)),
+      // pure modules the server and the screens share (value formatting); see station-api/src/contract
+      '@contract': fileURLToPath(new URL('../station-api/src/contract', import.meta.url)),
+    },
+  },
   test: {
     environment: 'jsdom',
     include: ['src/**/*.test.{ts,tsx}'],
