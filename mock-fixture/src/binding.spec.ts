@@ -51,7 +51,7 @@ describe('SimulatedFixtureBinding', () => {
     const readings = [];
     for (const q of ['MEAS:VOLT:IN?', 'MEAS:CURR:IN?', 'MEAS:VOLT:OUT?', 'MEAS:CURR:OUT?']) readings.push(Number(await client.query(q)));
     const [vin, iin, vout, iout] = readings;
-    // check-values §1.1 efficiency from the terminal readings
+    // efficiency η = Pout/Pin from the terminal readings (textbook definition, docs/reference.md)
     const efficiencyPct = (100 * vout * iout) / (vin * iin);
     expect(efficiencyPct).toBeGreaterThan(88);
     expect(efficiencyPct).toBeLessThan(96);

@@ -31,7 +31,8 @@ describe('demo catalogue', () => {
       // the LC corner sits well below the switching frequency and the loop between them
       expect(lcCornerHz(d.inductanceH, d.capacitanceF)).toBeLessThan(d.switchingHz / 20);
       expect(d.loopNaturalHz).toBeLessThan(d.switchingHz / 5);
-      // DCM only at light load: below 20 % of rated current at nominal line (check-values §2 I_crit)
+      // DCM only at light load: below 20 % of rated current at nominal line
+      // (I_crit = V_out/R_crit, Fundamentals of Power Electronics ch. 5 §5.1)
       expect(criticalLoadCurrentA(p.voutV, d.inductanceH, d.switchingHz, duty)).toBeLessThan(0.2 * p.ioutRatedA);
       expect(d.currentLimitA).toBeGreaterThan(1.2 * p.ioutRatedA);
       // the whole input range runs without lock-out
@@ -45,7 +46,7 @@ describe('generic fallback', () => {
   it('builds a working design from the ratings alone', () => {
     const p = genericProduct({ partNumber: 'XX-1', vinNomV: 48, voutV: 5, ioutRatedA: 4 });
     const d = p.design;
-    // 30 % ripple at nominal line by construction (check-values §2 ΔI_L formula)
+    // 30 % ripple at nominal line by construction (ΔI_L = (V_in − V_out)·D/(L·f), Fundamentals of Power Electronics)
     expect(inductorRippleApp(48, 5, 5 / 48, d.inductanceH, d.switchingHz)).toBeCloseTo(1.2, 9);
     const op = solveOperatingPoint(nominalUnit(p), { sourceOn: true, vinV: 48, loadA: 4 });
     expect(op.mode).toBe('ccm');

@@ -1,8 +1,8 @@
 import { Alert, createTheme, Modal, type MantineColorsTuple } from '@mantine/core';
 
 /*
- * Railwright's own palette (docs: ui-design.md). Each tuple runs light (0) to dark (9); shade 6 is the
- * named base colour, so `color="copper"` in light mode is #b06a32.
+ * Railwright's own palette, chosen by the team (not borrowed from another product). Each tuple runs light (0)
+ * to dark (9); shade 6 is the named base colour, so `color="copper"` in light mode is #b06a32.
  */
 const graphite: MantineColorsTuple = [
   '#f4f5f6', '#e7e9eb', '#d0d3d7', '#b4b9bf', '#949aa2',
@@ -56,7 +56,7 @@ export const theme = createTheme({
     }),
   },
   other: {
-    /** Smallest step value on the operator screen (ui-design.md: read from 1–2 m). */
+    /** Smallest step value on the operator screen: the operator stands 1–2 m from the screen and must read it there. */
     operatorFigurePx: 24,
     /** Smallest verdict word on the operator screen. */
     operatorVerdictPx: 96,

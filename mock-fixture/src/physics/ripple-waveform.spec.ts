@@ -4,25 +4,27 @@ import { solveOperatingPoint } from './operating-point';
 import { rippleWaveform } from './ripple-waveform';
 import { workedExampleUnit } from '../test-support/test-units';
 
-// check-values §2 worked example: ΔI_L = 0.5175 A, D = 0.1375, f = 250 kHz, C = 100 µF, ESR = 10 mΩ
+// self-constructed example (see buck-relations.spec.ts): ΔI_L = 0.5175 A, D = 0.1375, f = 250 kHz, C = 100 µF,
+// ESR = 10 mΩ
 const CCM = { kind: 'ccm' as const, duty: 0.1375, rippleApp: 0.5175 };
 
 describe('CCM ripple waveform', () => {
   it('has the capacitive p-p ΔI/(8fC) when the ESR is zero', () => {
-    // check-values §2 step 6: 2.5875 mV
+    // ΔI_L/(8fC) (Fundamentals of Power Electronics) by hand: 0.5175/200 = 2.5875 mV
     const w = rippleWaveform(CCM, 2, 250e3, 100e-6, 0);
     expect(w.vppV).toBeCloseTo(2.5875e-3, 8);
-    // same formula for another stage: 12 V → 5 V, 100 kHz, 100 µH → ΔI = 0.291 667 A (check-values §2 caution);
+    // same formula for another stage: 12 V → 5 V, 100 kHz, 100 µH → ΔI = 0.291 667 A (the rftools.io ripple
+    // calculator's stage, recomputed by hand);
     // with 47 µF: 0.291667/(8·1e5·47e-6) = 7.757 mV
     const other = rippleWaveform({ kind: 'ccm', duty: 5 / 12, rippleApp: 0.2916666667 }, 1, 100e3, 47e-6, 0);
     expect(other.vppV).toBeCloseTo(capacitiveRippleVpp(0.2916666667, 100e3, 47e-6), 8);
   });
 
   it('has the ESR p-p ΔI·ESR and a triangle’s rms when the capacitance is huge', () => {
-    // check-values §2 step 6: ESR term 5.175 mV
+    // ESR term ΔI_L·ESR by hand: 0.5175 × 0.01 = 5.175 mV
     const w = rippleWaveform(CCM, 2, 250e3, 1e3, 0.01);
     expect(w.vppV).toBeCloseTo(5.175e-3, 8);
-    // check-values §1.4: an ideal triangle has rms Vpp/(2√3); sample it densely
+    // an ideal triangle has rms Vpp/(2√3) (standard relation); sample it densely
     const n = 100_000;
     let sumSq = 0;
     for (let i = 0; i < n; i++) sumSq += w.at((i / n) * 4e-6) ** 2;

@@ -218,7 +218,7 @@ describe('measuring a good unit', () => {
       const expected = model(12, loadA);
       expect(vout).toBeCloseTo(expected.voutV, 2);
       expect(iout).toBeCloseTo(loadA, 2);
-      // check-values §1.1: η = V_out·I_out/(V_in·I_in) from the four readings
+      // η = V_out·I_out/(V_in·I_in) from the four readings (textbook definition, docs/reference.md)
       expect((100 * vout * iout) / (vin * iin)).toBeCloseTo(expected.efficiencyPct!, 0);
     }
 
@@ -229,7 +229,7 @@ describe('measuring a good unit', () => {
       await f.send('*OPC?');
       atLine.push(await f.num('MEAS:VOLT:OUT?'));
     }
-    // LN3 (check-values §1.3): (max − min)/V at nominal, in %; small for a good unit
+    // LN3 (codingace.net line-regulation page): (max − min)/V at nominal, in %; small for a good unit
     expect(((Math.max(...atLine) - Math.min(...atLine)) / atLine[1]) * 100).toBeLessThan(0.5);
     await f.send('SOUR:VOLT 12');
 

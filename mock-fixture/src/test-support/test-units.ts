@@ -1,7 +1,7 @@
 import type { BuckDesign, ProductModel, UnitModel } from '../physics/model-types';
 
 /**
- * Test helpers: a lossless unit shaped like the check-values §2 worked example (24 V → 3.3 V, 22 µH,
+ * Test helpers: a lossless unit shaped like the self-constructed buck example (24 V → 3.3 V, 22 µH,
  * 250 kHz, 100 µF, 10 mΩ), and a way to model a catalogue product at its exact design values.
  * Not exported from the package.
  */

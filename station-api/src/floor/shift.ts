@@ -116,7 +116,7 @@ export const MIN_RATE_ELAPSED_MS = 60_000;
 /**
  * First-pass yield in percent: units that passed their first test ÷ units tested for the first time.
  * Follows the common definition "passed the first time, without rework or retest" (Stamatis, *Six Sigma
- * Fundamentals*, via check-values §6.1).
+ * Fundamentals*).
  * @returns null when no unit had its first test (nothing to divide by)
  */
 export function firstPassYieldPct(firstPassed: number, firstTested: number): number | null {

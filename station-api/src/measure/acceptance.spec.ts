@@ -7,13 +7,13 @@ const close = (actual: number | undefined, expected: number, rel = 1e-12) => {
   expect(Math.abs((actual as number) - expected)).toBeLessThanOrEqual(Math.abs(expected) * rel);
 };
 
-// check-values §7.2 [X]: V_out = 5.000 ± 0.100 V, meter U = 10 mV (k = 2)
+// self-constructed example: V_out = 5.000 ± 0.100 V, meter U = 10 mV (k = 2)
 const simple = { low: 4.9, high: 5.1, uncertainty: 0.01, rule: 'simple' as const };
 const guarded = { ...simple, rule: 'guarded' as const };
 
 describe('judge, simple acceptance (ILAC-G8:09/2019 §4.2.1)', () => {
   it('passes inside and on the tolerance limit, fails beyond it', () => {
-    // check-values §7.2 table: 5.080 pass, 5.095 pass, 5.100 pass (on TL), 5.105 fail
+    // simple acceptance on the self-constructed example: 5.080 pass, 5.095 pass, 5.100 pass (on TL), 5.105 fail
     expect(judge(5.08, simple).verdict).toBe('pass');
     expect(judge(5.095, simple).verdict).toBe('pass');
     expect(judge(5.1, simple).verdict).toBe('pass');
@@ -31,14 +31,14 @@ describe('judge, simple acceptance (ILAC-G8:09/2019 §4.2.1)', () => {
 
 describe('judge, guarded acceptance w = U', () => {
   it('narrows 4.900/5.100 to 4.910/5.090', () => {
-    // check-values §7.2 Case A: guarded acceptance limits with w = U are 4.910 V / 5.090 V
+    // ILAC-G8:09/2019 guard band w = U: acceptance limits 4.900 + 0.010 / 5.100 − 0.010 = 4.910 V / 5.090 V
     const j = judge(5.0, guarded);
     close(j.guardedLow, 4.91);
     close(j.guardedHigh, 5.09);
   });
 
   it('gives the binary verdicts of the worked table', () => {
-    // check-values §7.2: 5.080 pass; 5.090 pass (on AL); 5.095 fail (guard); 5.100 fail (guard); 5.105 fail
+    // self-constructed example: 5.080 pass; 5.090 pass (on AL); 5.095 fail (guard); 5.100 fail (guard); 5.105 fail
     expect(judge(5.08, guarded).verdict).toBe('pass');
     expect(judge(5.09, guarded).verdict).toBe('pass');
     expect(judge(5.095, guarded).verdict).toBe('guard_fail');
@@ -48,9 +48,9 @@ describe('judge, guarded acceptance w = U', () => {
   });
 
   it('keeps the specific false-accept risk at the acceptance limit below 2.5 %', () => {
-    // ILAC-G8:09/2019 (SGS decision-rule page via check-values §7.1): w = U keeps false accept < 2.5 %.
-    // Reading on AL = 5.090 V, u = U/2 = 5 mV: P(true > 5.100) = 1 − Φ(2) = 0.022750 (@stdlib normal cdf;
-    // check-values §8 Φ(2) = 0.977249868051821)
+    // ILAC-G8:09/2019, binary statement with guard band w = U: false accept < 2.5 %.
+    // Reading on AL = 5.090 V, u = U/2 = 5 mV: P(true > 5.100) = 1 − Φ(2) = 0.022750 (@stdlib/stats-base-dists-normal-cdf
+    // as reference; jStat.normal.cdf gives the same Φ(2) = 0.977249868051821)
     const j = judge(5.09, guarded);
     const u = guarded.uncertainty / 2;
     const risk = 1 - cdf(guarded.high, j.guardedHigh as number, u);
@@ -62,8 +62,8 @@ describe('judge, guarded acceptance w = U', () => {
 
 describe('judge, non-binary statement (ILAC-G8:09/2019 §4.2.3)', () => {
   it('gives Pass / Conditional Pass / Conditional Fail / Fail as in the worked table', () => {
-    // check-values §7.2: 5.080 Pass, 5.090 Pass, 5.095 Conditional Pass, 5.100 Conditional Pass,
-    // 5.105 Conditional Fail (≤ TL + w = 5.110)
+    // ILAC-G8:09/2019 §4.2.3 on the self-constructed example: 5.080 Pass, 5.090 Pass, 5.095 Conditional Pass,
+    // 5.100 Conditional Pass, 5.105 Conditional Fail (≤ TL + w = 5.110)
     expect(judge(5.08, guarded).statement).toBe('pass');
     expect(judge(5.09, guarded).statement).toBe('pass');
     expect(judge(5.095, guarded).statement).toBe('conditional_pass');
@@ -100,7 +100,7 @@ describe('one-sided limits', () => {
 
 describe('guardedLimits', () => {
   it('gives the w = U limits for the three meter uncertainties', () => {
-    // check-values §7.2 acceptance half-width table: U 0.010 / 0.025 / 0.050 → 4.910/5.090, 4.925/5.075, 4.950/5.050
+    // w = U by hand: U 0.010 / 0.025 / 0.050 → 4.910/5.090, 4.925/5.075, 4.950/5.050
     for (const [u, lo, hi] of [
       [0.01, 4.91, 5.09],
       [0.025, 4.925, 5.075],
@@ -128,14 +128,14 @@ describe('guardedLimits', () => {
 
 describe('tur', () => {
   it('is span / 2U (ANSI/NCSL Z540.3 Handbook definition)', () => {
-    // check-values §7.2: 0.200/(2·0.010) = 10:1; U = 0.025 → 4:1; U = 0.050 → 2:1
+    // by hand: 0.200/(2·0.010) = 10:1; U = 0.025 → 4:1; U = 0.050 → 2:1
     close(tur(4.9, 5.1, 0.01), 10, 1e-12);
     close(tur(4.9, 5.1, 0.025), 4, 1e-12);
     close(tur(4.9, 5.1, 0.05), 2, 1e-12);
   });
 
   it('equals the JCGM 106 measurement capability index C_m = (T_U − T_L)/(4u) when U = 2u', () => {
-    // check-values §7.1: C_m (symbol and clause recalled from memory [M]) equals the Z540.3 TUR with U = 2u;
+    // JCGM 106:2012 C_m (symbol and clause from memory, unverified) equals the Z540.3 TUR with U = 2u;
     // ASME B89.7.3.1-2001 §2 N:1 rule: the specification zone is N times the uncertainty interval (2U wide)
     const u = 0.0125;
     close(tur(4.9, 5.1, 2 * u), (5.1 - 4.9) / (4 * u), 1e-12);
@@ -149,7 +149,7 @@ describe('tur', () => {
 });
 
 describe('rdsHalfWidth', () => {
-  it('is √(T² − U²) (formula recalled from memory, check-values §7.1 [M]; numbers §7.2 [X])', () => {
+  it('is √(T² − U²) (formula from memory, unverified; values by hand)', () => {
     close(rdsHalfWidth(0.1, 0.01), 0.099498743710662, 1e-12);
     close(rdsHalfWidth(0.1, 0.025), 0.096824583655185, 1e-12);
     close(rdsHalfWidth(0.1, 0.05), 0.086602540378444, 1e-12);

@@ -139,8 +139,8 @@ export function tur(low: number, high: number, U: number): number {
 }
 
 /**
- * Root-difference-of-squares acceptance half-width, A = √(T² − U²) (a guard-banding method recalled from memory
- * in check-values §7.1; not used by `judge`, offered for comparison reports).
+ * Root-difference-of-squares acceptance half-width, A = √(T² − U²) (a guard-banding method from memory,
+ * unverified; not used by `judge`, offered for comparison reports).
  * @param T tolerance half-width
  * @param U expanded uncertainty, same unit
  * @returns acceptance half-width, same unit

@@ -2,8 +2,9 @@ import { requireFinite, requireFiniteArray, requirePositive } from './guards';
 
 /**
  * Load and line regulation. Published definitions disagree on the denominator and even on the quantity
- * (see check-values §1.2 and §1.3), so every function here is named after one definition and a plan step
- * states which one it wants. Identifiers follow check-values: LR1, LR2, LR4, LR5 and LN2, LN3, LN4.
+ * (Microchip Developer Help, IEC 61204, Wikipedia "Line regulation" and others), so every function here is named
+ * after one definition and a plan step states which one it wants. The identifiers LR1, LR2, LR4, LR5 and LN2, LN3,
+ * LN4 are ours; docs/reference.md lists each definition with its source.
  */
 
 export type LoadRegulationDefinition = 'full_load' | 'nominal';

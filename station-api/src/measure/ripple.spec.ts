@@ -79,20 +79,21 @@ describe('lowPass (2nd-order Butterworth, forward-backward)', () => {
 });
 
 describe('rippleMvPp', () => {
-  // check-values §1.4 [X]: three periods of an 8-point triangle around 5.004 V
+  // self-constructed example: three periods of an 8-point triangle around 5.004 V
   const triangle = Array.from({ length: 3 }, () => [5.004, 5.012, 5.02, 5.012, 5.004, 4.996, 4.988, 4.996]).flat();
 
   it('is max − min of the record', () => {
-    // check-values §1.4: p-p = 32.000 mV
+    // p-p = max − min = 5.020 − 4.988 V = 32.000 mV (hand arithmetic)
     close(rippleMvPp(triangle, 8e6), 32.0, 1e-9);
   });
 
   it('gives the peak-to-peak of a sampled sine', () => {
-    // check-values §1.4: a 40 mV p-p sine; with 64 samples per period the peaks are sampled exactly
+    // self-constructed example: a 40 mV p-p sine; with 64 samples per period the peaks are sampled exactly
     close(rippleMvPp(sine(192, 0.02, 500e3, 32e6, 5), 32e6), 40.0, 1e-9);
   });
 
-  it('with a 20 MHz limit keeps the switching ripple and drops 150 MHz pick-up (PARD practice, check-values §1.4)', () => {
+  // 20 MHz bandwidth limit for switcher ripple: Powermate Technology, "What is output ripple and noise"
+  it('with a 20 MHz limit keeps the switching ripple and drops 150 MHz pick-up', () => {
     const fs = 1e9;
     const ripple = sine(20000, 0.01, 500e3, fs, 5); // 20 mV p-p at 500 kHz, 10 periods
     const pickup = sine(20000, 0.015, 150e6, fs); // 30 mV p-p above the measurement bandwidth
@@ -114,12 +115,13 @@ describe('rippleMvPp', () => {
 
 describe('acRmsMv', () => {
   it('is the AC rms of the sampled triangle', () => {
-    // check-values §1.4 [X]: 9.797959 mV (the continuous triangle would be 9.237604 mV: do not mix them)
+    // self-constructed example, recomputed with simple-statistics standardDeviation: 9.797 959 mV (the continuous
+    // triangle would be Vpp/(2√3) = 9.237 604 mV: do not mix them)
     close(acRmsMv([5.004, 5.012, 5.02, 5.012, 5.004, 4.996, 4.988, 4.996]), 9.797958971, 1e-9);
   });
 
   it('is Vpp/(2√2) for a sine sampled over whole periods', () => {
-    // check-values §1.4: continuous sine rms = Vpp/(2√2); 40 mV p-p → 14.142136 mV
+    // rms of a sine = Vpp/(2√2) (standard relation); 40 mV p-p → 14.142 136 mV
     close(acRmsMv(sine(192, 0.02, 500e3, 32e6, 5)), 14.14213562, 1e-9);
   });
 

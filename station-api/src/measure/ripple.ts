@@ -4,7 +4,8 @@ import { requireFiniteArray, requirePositive } from './guards';
  * Ripple and noise (PARD) from a captured output-voltage record.
  *
  * Bandwidth limit: a bench measurement of switcher ripple is taken with the scope's 20 MHz bandwidth limit
- * (check-values §1.4). The captured record is limited in software the same way before p-p is taken, with
+ * (Powermate Technology, "What is output ripple and noise"; the PARD band of the Agilent E3614A manual, appendix A,
+ * also ends at 20 MHz). The captured record is limited in software the same way before p-p is taken, with
  *
  *   a 2nd-order Butterworth low-pass, digitised by the bilinear transform with the cutoff pre-warped,
  *   run forward and then backward over the record (zero phase, so the filter does not shift the waveform).

@@ -6,7 +6,7 @@ const close = (actual: number | null, expected: number, rel = 1e-9) => {
   expect(Math.abs((actual as number) - expected)).toBeLessThanOrEqual(Math.abs(expected) * rel + 1e-12);
 };
 
-// check-values §1.5 worked trace [X] (self-constructed): 0.5 A → 2.5 A at t = 0, one sample every 2 µs from −4 µs
+// self-constructed example trace: 0.5 A → 2.5 A at t = 0, one sample every 2 µs from −4 µs
 const trace = [
   5.01, 5.01, 5.01, 4.95, 4.9, 4.872, 4.88, 4.905, 4.935, 4.958, 4.975, 4.988, 4.996, 5.001, 5.003, 5.002, 5.002, 5.002,
 ];
@@ -15,7 +15,7 @@ const base = { samplesV: trace, sampleRateHz: 500e3, stepIndex: 2, vNomV: 5.0, f
 describe('transientMetrics', () => {
   it('finds V_before, V_final, V_min and the undershoot of the worked trace', () => {
     const m = transientMetrics({ ...base, bandPct: 1 });
-    // check-values §1.5: V_before 5.010 V (mean for t ≤ 0), V_final 5.002 V (last 3), V_min 4.872 V
+    // by hand: V_before 5.010 V (mean for t ≤ 0), V_final 5.002 V (last 3), V_min 4.872 V
     close(m.vBeforeV, 5.01);
     close(m.vFinalV, 5.002);
     close(m.vMinV, 4.872);
@@ -29,7 +29,8 @@ describe('transientMetrics', () => {
 
   it('recovers into ±1 % at 13.3043 µs, having left the band at 2 µs', () => {
     const m = transientMetrics({ ...base, bandPct: 1 });
-    // check-values §1.5: interpolated 4.950 V crossing 12 + 2·(0.015/0.023) = 13.3043 µs from the step
+    // by hand: interpolated 4.950 V crossing 12 + 2·(0.015/0.023) = 13.3043 µs from the step
+    // (NI PXIe-4051 help: time from the step until back within the band)
     close(m.recoveryUs, 12 + (2 * 0.015) / 0.023);
     // the trace leaves the band at t = 2 µs; the sample there is exactly on the inclusive bound
     close(m.leftBandAtUs, 2);
@@ -38,7 +39,7 @@ describe('transientMetrics', () => {
   });
 
   it('recovers into ±0.5 % at 16 µs, counting the sample on the bound as inside', () => {
-    // check-values §1.5: 4.975 V at 16 µs is exactly on the bound and counts as inside
+    // by hand: 4.975 V at 16 µs is exactly on the bound and counts as inside (our convention: bounds inclusive)
     const m = transientMetrics({ ...base, bandPct: 0.5 });
     close(m.recoveryUs, 16);
   });
@@ -59,7 +60,7 @@ describe('transientMetrics', () => {
   });
 
   it('measures overshoot on a load release against V_before', () => {
-    // the §1.5 trace mirrored about 5.010 V: undershoot becomes a 138 mV overshoot (Duke notes, load removed)
+    // the example trace mirrored about 5.010 V: undershoot becomes a 138 mV overshoot (Duke notes, load removed)
     const mirrored = trace.map((v) => 10.02 - v);
     const m = transientMetrics({ ...base, samplesV: mirrored, vNomV: 5.02, bandPct: 1 });
     close(m.overshootMv, 138, 1e-9);

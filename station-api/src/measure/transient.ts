@@ -3,7 +3,8 @@ import { requireFinite, requireFiniteArray, requirePositive } from './guards';
 /**
  * Load-step (transient) response from a captured output-voltage record.
  *
- * Conventions (check-values §1.5):
+ * Conventions (ours; the recovery definitions follow Duke University's power converter testing notes and the NI
+ * PXIe-4051 help, see docs/reference.md):
  * - Time 0 is the step instant, the sample at `stepIndex`; sample i is at (i − stepIndex) / f_s.
  * - V_before is the mean of the `preSamples` samples ending at and including the step sample (all samples up to
  *   the step by default). V_final is the mean of the last `finalSamples` samples (default: the last 10 % of the

@@ -13,7 +13,7 @@ describe('ratingProblems', () => {
   });
 
   it('refuses an output at or above the lowest input (buck duty D = Vout/Vin must stay below 1)', () => {
-    // ideal CCM duty D = Vout/Vin from volt-second balance: /work/shared/reference/check-values.md §2 [C]
+    // ideal CCM duty D = Vout/Vin from volt-second balance (Semtech "Power Supplies 101" tutorial)
     const p = ratingProblems({ vinMinV: 5, vinNomV: 12, vinMaxV: 18, voutNomV: 5, ioutRatedA: 3 });
     expect(p).toEqual([{ field: 'voutNomV', problems: [expect.stringMatching(/steps the voltage down/)] }]);
   });

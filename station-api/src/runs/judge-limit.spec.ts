@@ -8,7 +8,7 @@ const t = new Date('2026-11-20T08:00:00Z');
 const limit = { key: 'voutV', name: 'Output voltage', unit: 'V', low: 4.9, high: 5.1, rule: 'guarded' as const };
 
 describe('judgeLimit', () => {
-  // check-values §7.2 worked example: V_out 5.000 ± 0.100 V, U = 10 mV (k = 2), guard band w = U
+  // self-constructed example: V_out 5.000 ± 0.100 V, U = 10 mV (k = 2), guard band w = U
   // (ILAC-G8:09/2019 binary statement with guard band) → acceptance limits 4.910 / 5.090 V
   it.each([
     [5.08, MeasurementVerdict.Pass],

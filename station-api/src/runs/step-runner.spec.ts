@@ -50,7 +50,7 @@ describe('runStep', () => {
   });
 
   it('computes efficiency per load from the four DC readings', async () => {
-    // check-values §1.1 worked example [X]: 12.000 V, 0.9500 A in; 5.000 V, 2.000 A out → η = 87.7192982456 %
+    // η = Pout/Pin, self-constructed example: 12.000 V, 0.9500 A in; 5.000 V, 2.000 A out → η = 10/11.4 = 87.7192982456 %
     const fx = new ScriptedFixture({
       'MEAS:VOLT:IN?': () => '12.000',
       'MEAS:CURR:IN?': () => '0.9500',
@@ -65,7 +65,7 @@ describe('runStep', () => {
   });
 
   it('computes load regulation by the plan definition from V at 0 A, half and full load', async () => {
-    // check-values §1.2 worked example [X]: V_NL 5.050, V_FL 4.990 at 3.0 A, V_nom 5.000, V(50 %) 5.020
+    // self-constructed example (definitions in docs/reference.md): V_NL 5.050, V_FL 4.990 at 3.0 A, V_nom 5.000, V(50 %) 5.020
     const vAt = (s: { loadA: number; loadOn: boolean }) => (!s.loadOn ? '5.050' : s.loadA === 3 ? '4.990' : '5.020');
     const nominal = await runStep(step('load_regulation', { regulationDefinition: 'nominal' }), ctxFor(new ScriptedFixture({ 'MEAS:VOLT:OUT?': vAt })));
     expect(nominal[0].value).toBeCloseTo(1.2, 12); // LR2 ÷ V_nom = 1.200000000 %
@@ -76,7 +76,8 @@ describe('runStep', () => {
   });
 
   it('sweeps the line at the stated load and takes the nominal-line output as reference', async () => {
-    // LN3 (check-values §1.3): (max − min) / V at nominal line; outputs 5.010 / 5.000 / 4.995 → 0.015/5.000 = 0.3 % [X]
+    // LN3 (codingace.net line-regulation page): (max − min) / V at nominal line; self-constructed example,
+    // outputs 5.010 / 5.000 / 4.995 → 0.015/5.000 = 0.3 %
     const byVin: Record<number, string> = { 9: '5.010', 12: '5.000', 18: '4.995' };
     const fx = new ScriptedFixture({ 'MEAS:VOLT:OUT?': (s) => byVin[s.vinV] });
     const [q] = await runStep(step('line_regulation', { loadA: 1.5 }), ctxFor(fx));

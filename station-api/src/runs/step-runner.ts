@@ -154,7 +154,7 @@ export async function runStep(step: PlanStep, ctx: StepContext): Promise<Quantit
       await settled(ctx, settleMs);
       readings.vNoLoadV = await scpi.measure('VOLT:OUT');
       // LR4 compares against the output at a reference load; half of full load is the usual choice
-      // (check-values §1.2 LR4, "e.g. 50 %"; common datasheet practice)
+      // (common practice, no source)
       const refA = loadA / 2;
       if (definition === 'reference_load') {
         await setLoad(ctx, refA);

@@ -1,15 +1,16 @@
 import { formatFigure } from '@/components/figure';
 
 /*
- * How measured values and their limits are written on every screen (ui-design.md: V with three decimals,
- * % with one for efficiency, mV with one). Shared by the operator station and the runs screens.
+ * How measured values and their limits are written on every screen (V with three decimals, % with one for
+ * efficiency, mV with one: enough digits to judge a value against its limits, no digits that only show noise).
+ * Shared by the operator station and the runs screens.
  */
 
 /** Yes/no results (protection steps) travel as 1/0 with this unit (station-api plan-quantities.ts). */
 export const FLAG_UNIT = 'flag';
 
 /**
- * Decimals per quantity (ui-design.md: V with three, % with one for efficiency, mV with one). Regulation
+ * Decimals per quantity (V with three, % with one for efficiency, mV with one). Regulation
  * figures sit near 0.1 %, so they get two decimals to stay readable against limits like 0.5 %.
  */
 export function digitsFor(quantity: string, unit: string): number {
@@ -32,8 +33,8 @@ export function formatValue(value: number | null | undefined, quantity: string, 
 }
 
 /**
- * Limits as `low … high` (ui-design.md); a one-sided limit as `≤ high` or `≥ low`. Both bounds are
- * inclusive, as in the plan files.
+ * Limits as `low … high`, written next to the value so the two can be compared at a glance; a one-sided
+ * limit as `≤ high` or `≥ low`. Both bounds are inclusive, as in the plan files.
  */
 export function formatLimits(low: number | null | undefined, high: number | null | undefined, quantity: string, unit: string): string {
   const has = (v: number | null | undefined): v is number => typeof v === 'number' && Number.isFinite(v);

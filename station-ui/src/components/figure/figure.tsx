@@ -6,7 +6,7 @@ export interface FigureProps {
   value: number | null | undefined;
   /** Unit written after the number: V, A, mA, mV, %, µs … (empty for a bare count) */
   unit?: string;
-  /** Digits after the decimal point (ui-design.md: V with 3, % with 1, mV with 1) */
+  /** Digits after the decimal point (V with 3, % with 1, mV with 1: enough to compare with the limits, no noise digits) */
   digits?: number;
   /** Font size in px or any CSS length */
   size?: number | string;

@@ -4,7 +4,7 @@ import { renderApp } from '@/testing/render';
 import { verdictLooks, verdicts, type Verdict } from '@/theme';
 import { VerdictBadge } from './verdict-badge';
 
-// Word, shape and colour per verdict as fixed in ui-design.md ("never colour alone").
+// Word, shape and colour per verdict, never colour alone: an operator with a colour-vision deficiency must read it too.
 const expected: Record<Verdict, { word: string; shape: string; color: string; note?: string }> = {
   pass: { word: 'PASS', shape: 'circle-check', color: 'signalGreen' },
   fail: { word: 'FAIL', shape: 'square-cross', color: 'signalRed' },

@@ -13,7 +13,7 @@ export interface VerdictBadgeProps {
   className?: string;
 }
 
-/** A verdict as word + shape + colour (ui-design.md), so it reads without colour vision. */
+/** A verdict as word + shape + colour, never colour alone, so it reads without colour vision. */
 export function VerdictBadge({ verdict, size = 'md', className }: VerdictBadgeProps) {
   const look = verdictLooks[verdict];
   return (

@@ -43,7 +43,7 @@ export function describeRepairError(error: unknown): string {
 
 const has = (v: number | null | undefined): v is number => typeof v === 'number' && Number.isFinite(v);
 
-/** Decimals: V three, % and mV one (ui-design.md); the same rule the station and runs screens follow. */
+/** Decimals: V three, % and mV one (enough to compare with the limits); the same rule the station and runs screens follow. */
 function digitsFor(quantity: string, unit: string): number {
   if (quantity.startsWith('efficiency')) return 1;
   if (unit === '%') return 2;

@@ -81,7 +81,7 @@ describe('StepList', () => {
     expect(row.querySelector('[data-visible]')).toBe(guardLine);
     expect(guardLine).toHaveAttribute('data-visible', 'yes');
     expect(guardLine).toHaveTextContent('guard 4.910 … 5.090 V');
-    // the guard-band verdict is a FAIL with its own words (ui-design.md)
+    // the guard-band verdict is a FAIL with its own words, so nobody mistakes it for a gross failure
     expect(row).toHaveTextContent('FAIL');
     expect(row).toHaveTextContent('inside spec, outside guard band');
   });
