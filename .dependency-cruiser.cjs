@@ -38,6 +38,24 @@ module.exports = {
       },
     },
     {
+      name: 'pure-computation-transitive',
+      comment:
+        'The same rule through any chain of imports: a measure/ or stats/ file that imports an entity or a ' +
+        'service pulls NestJS or the ORM in behind it. Keep shared enums and types in plain modules.',
+      severity: 'error',
+      from: { path: '^station-api/src/(measure|stats)/' },
+      to: {
+        path: [
+          '(^|/)node_modules/@nestjs/',
+          '(^|/)node_modules/@mikro-orm/',
+          '(^|/)node_modules/serialport/',
+          '(^|/)node_modules/@serialport/',
+          '^station-api/src/fixtures/transport/',
+        ],
+        reachable: true,
+      },
+    },
+    {
       name: 'fixture-link-not-simulator',
       comment:
         'The fixture link (station-api/src/fixtures) talks to a transport and knows nothing of the ' +

@@ -38,7 +38,7 @@ export default defineConfig(
   },
   // Server and simulated fixture: Node.
   {
-    files: ['station-api/**/*.ts', 'mock-fixture/**/*.{ts,mts}'],
+    files: ['station-api/**/*.{ts,mts}', 'mock-fixture/**/*.{ts,mts}'],
     languageOptions: { globals: { ...globals.node } },
   },
   // Screens: the browser.
