@@ -29,7 +29,7 @@ export interface RangeChartSignal {
 export interface LocationChart extends ChartLimits {
   /** plotted values: the individual values, or the subgroup means */
   points: number[];
-  /** σ̂ of one plotted point (σ̂ for individuals, σ̂/√n for subgroup means) */
+  /** σ̂ of one plotted point: a third of the distance from centre to limit (≈ σ̂ for individuals, σ̂/√n for means) */
   sigmaOfPoint: number;
   violations: RuleViolation[];
 }
@@ -130,7 +130,9 @@ export function xbarRChart(subgroups: readonly (readonly number[])[], ruleSet: R
   const grand = mean(means);
   const rBar = mean(ranges);
   const sigmaWithin = rBar / k.d2;
-  const sigmaOfPoint = sigmaWithin / Math.sqrt(n);
+  // σ of a plotted mean taken as A2·R̄/3 rather than σ̂/√n: the two differ only by the rounding of the printed
+  // A2, and this way the run-rule zones end exactly on the drawn limits (a point beyond UCL is beyond 3σ).
+  const sigmaOfPoint = (k.A2 * rBar) / 3;
   const xLimits = { centre: grand, upper: grand + k.A2 * rBar, lower: grand - k.A2 * rBar };
   const rLimits = { centre: rBar, upper: k.D4 * rBar, lower: k.D3 * rBar };
   return {

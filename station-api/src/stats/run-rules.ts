@@ -20,8 +20,10 @@ import { requireFinite, requireFiniteArray } from '../measure/guards';
  * - a point exactly on the centre line belongs to neither side and breaks a same-side run;
  * - N3 counts points (6 points = 5 successive rises); an equal neighbour breaks the trend, and in N4 a repeat
  *   breaks the alternation;
- * - a rule is checked at every point, on the window that ends there, so a run longer than the rule needs is
- *   reported again at each further point; the UI marks every reported point;
+ * - a rule is checked at every point, on the window that ends there; for the run rules (WE4, N2, N3, N4, N7,
+ *   N8) consecutive points that meet the rule form one finding whose indices cover the whole run, so a run of
+ *   40 points is one finding "points 3–42 (40 in a row) …" rather than 33; the 2-of-3 and 4-of-5 rules report
+ *   at each point that completes the pattern;
  * - in the 2-of-3 and 4-of-5 rules the remaining point may lie anywhere, and the reported indices are the points
  *   that lie beyond the zone.
  * `index` is 0-based; the messages number points from 1, as a person reads the chart.
@@ -32,15 +34,16 @@ export type RuleId = 'WE1' | 'WE2' | 'WE3' | 'WE4' | 'N1' | 'N2' | 'N3' | 'N4' |
 
 export interface RuleViolation {
   rule: RuleId;
-  /** point (0-based) at which the rule is met: the last point of the window */
+  /** point (0-based) at which the rule is first met (the last point of the first window that meets it) */
   index: number;
-  /** every point (0-based) the finding rests on */
+  /** every point (0-based) the finding rests on: the beyond-zone points, or the whole run */
   indices: number[];
   /** the finding in plain words, points numbered from 1 */
   message: string;
 }
 
 type Side = 1 | -1;
+const RULE_ORDER: Record<RuleId, number> = { WE1: 1, WE2: 2, WE3: 3, WE4: 4, N1: 1, N2: 2, N3: 3, N4: 4, N5: 5, N6: 6, N7: 7, N8: 8 };
 const sideWord = (s: Side) => (s > 0 ? 'above' : 'below');
 const pointSpan = (from: number, to: number) => `points ${from + 1}–${to + 1}`;
 const range = (from: number, to: number) => Array.from({ length: to - from + 1 }, (_, i) => from + i);
@@ -63,69 +66,85 @@ function beyond(rule: RuleId, z: readonly number[], k: number): RuleViolation[] 
 /** m of the last w points beyond kσ on one side. */
 function mOfW(rule: RuleId, z: readonly number[], m: number, w: number, k: number): RuleViolation[] {
   const out: RuleViolation[] = [];
-  for (let end = w - 1; end < z.length; end++) {
-    for (const side of [1, -1] as Side[]) {
-      const hits = range(end - w + 1, end).filter((i) => side * z[i] > k);
+  for (const side of [1, -1] as Side[]) {
+    const hit = z.map((v) => side * v > k);
+    let count = 0;
+    for (let end = 0; end < z.length; end++) {
+      if (hit[end]) count++;
+      if (end >= w && hit[end - w]) count--;
+      if (end < w - 1 || count < m) continue;
       // Report where the pattern completes: at a point that is itself a hit, or at the first full window.
       // A window whose last point is not a hit holds only hits that an earlier window already reported.
-      if (hits.length >= m && (hits.includes(end) || end === w - 1)) {
-        out.push({
-          rule,
-          index: end,
-          indices: hits,
-          message: `${hits.length} of the ${w} ${pointSpan(end - w + 1, end)} are more than ${k} σ ${sideWord(side)} the centre line`,
-        });
-      }
+      if (!hit[end] && end !== w - 1) continue;
+      const hits = range(end - w + 1, end).filter((i) => hit[i]);
+      out.push({
+        rule,
+        index: end,
+        indices: hits,
+        message: `${hits.length} of the ${w} ${pointSpan(end - w + 1, end)} are more than ${k} σ ${sideWord(side)} the centre line`,
+      });
     }
+  }
+  return out;
+}
+
+/**
+ * Turns "the window of `len` points ending at i meets the rule" flags into findings: consecutive window ends
+ * form one finding covering the whole run, so a long run is one marked stretch rather than one finding per point.
+ */
+function runs(
+  rule: RuleId,
+  met: readonly boolean[],
+  len: number,
+  words: (from: number, to: number) => string,
+): RuleViolation[] {
+  const out: RuleViolation[] = [];
+  let i = 0;
+  while (i < met.length) {
+    if (!met[i]) {
+      i++;
+      continue;
+    }
+    let last = i;
+    while (last + 1 < met.length && met[last + 1]) last++;
+    const from = i - len + 1;
+    out.push({ rule, index: i, indices: range(from, last), message: `${pointSpan(from, last)} (${last - from + 1} in a row) ${words(from, last)}` });
+    i = last + 1;
   }
   return out;
 }
 
 /** `len` points in a row strictly on one side of the centre line. */
 function sameSide(rule: RuleId, z: readonly number[], len: number): RuleViolation[] {
-  const out: RuleViolation[] = [];
+  const met: boolean[] = [];
   let run = 0;
   let side = 0;
   z.forEach((v, i) => {
     const s = Math.sign(v);
     run = s !== 0 && s === side ? run + 1 : s !== 0 ? 1 : 0;
     side = s;
-    if (run >= len) {
-      out.push({
-        rule,
-        index: i,
-        indices: range(i - len + 1, i),
-        message: `${pointSpan(i - len + 1, i)} (${len} in a row) all lie ${sideWord(s as Side)} the centre line`,
-      });
-    }
+    met[i] = run >= len;
   });
-  return out;
+  return runs(rule, met, len, (_f, to) => `all lie ${sideWord(z[to] > 0 ? 1 : -1)} the centre line`);
 }
 
 /** N3: `len` points in a row each higher (or each lower) than the one before. */
 function trend(z: readonly number[], len: number): RuleViolation[] {
-  const out: RuleViolation[] = [];
+  const met: boolean[] = [false];
   let steps = 0;
   let dir = 0;
   for (let i = 1; i < z.length; i++) {
     const d = Math.sign(z[i] - z[i - 1]);
     steps = d !== 0 && d === dir ? steps + 1 : d !== 0 ? 1 : 0;
     dir = d;
-    if (steps >= len - 1) {
-      out.push({
-        rule: 'N3',
-        index: i,
-        indices: range(i - len + 1, i),
-        message: `${pointSpan(i - len + 1, i)} (${len} in a row) ${d > 0 ? 'rise' : 'fall'} steadily`,
-      });
-    }
+    met[i] = steps >= len - 1;
   }
-  return out;
+  return runs('N3', met, len, (_f, to) => (z[to] > z[to - 1] ? 'rise steadily' : 'fall steadily'));
 }
 
 /** N4: `len` points in a row alternating up and down. */
 function alternating(z: readonly number[], len: number): RuleViolation[] {
-  const out: RuleViolation[] = [];
+  const met: boolean[] = [false];
   let run = 0;
   let prev = 0;
   for (let i = 1; i < z.length; i++) {
@@ -133,44 +152,27 @@ function alternating(z: readonly number[], len: number): RuleViolation[] {
     run = d !== 0 && d === -prev ? run + 1 : d !== 0 ? 1 : 0;
     prev = d;
     // run counts alternating steps; len points need len − 1 steps
-    if (run >= len - 1) {
-      out.push({
-        rule: 'N4',
-        index: i,
-        indices: range(i - len + 1, i),
-        message: `${pointSpan(i - len + 1, i)} (${len} in a row) alternate up and down`,
-      });
-    }
+    met[i] = run >= len - 1;
   }
-  return out;
+  return runs('N4', met, len, () => 'alternate up and down');
 }
 
 /** N7 (inside = true): `len` in a row within 1σ; N8 (inside = false): `len` in a row outside 1σ, both sides. */
 function band(rule: 'N7' | 'N8', z: readonly number[], len: number, inside: boolean): RuleViolation[] {
-  const out: RuleViolation[] = [];
+  const met: boolean[] = [];
   let run = 0;
+  let lastAbove = -1;
+  let lastBelow = -1;
   z.forEach((v, i) => {
-    const ok = inside ? Math.abs(v) < 1 : Math.abs(v) > 1;
-    run = ok ? run + 1 : 0;
-    if (run < len) return;
-    const idx = range(i - len + 1, i);
-    if (inside) {
-      out.push({
-        rule,
-        index: i,
-        indices: idx,
-        message: `${pointSpan(i - len + 1, i)} (${len} in a row) all lie within 1 σ of the centre line: less spread than the limits assume`,
-      });
-    } else if (idx.some((j) => z[j] > 0) && idx.some((j) => z[j] < 0)) {
-      out.push({
-        rule,
-        index: i,
-        indices: idx,
-        message: `${pointSpan(i - len + 1, i)} (${len} in a row) all lie more than 1 σ from the centre line, on both sides of it`,
-      });
-    }
+    run = (inside ? Math.abs(v) < 1 : Math.abs(v) > 1) ? run + 1 : 0;
+    if (v > 0) lastAbove = i;
+    if (v < 0) lastBelow = i;
+    const start = i - len + 1;
+    met[i] = run >= len && (inside || (lastAbove >= start && lastBelow >= start));
   });
-  return out;
+  return inside
+    ? runs(rule, met, len, () => 'all lie within 1 σ of the centre line: less spread than the limits assume')
+    : runs(rule, met, len, () => 'all lie more than 1 σ from the centre line, on both sides of it');
 }
 
 /**
@@ -205,6 +207,5 @@ export function evaluateRunRules(points: readonly number[], centre: number, sigm
           ...band('N7', z, 15, true),
           ...band('N8', z, 8, false),
         ];
-  const order = (r: RuleId) => (ruleSet === 'western-electric' ? ['WE1', 'WE2', 'WE3', 'WE4'] : ['N1', 'N2', 'N3', 'N4', 'N5', 'N6', 'N7', 'N8']).indexOf(r);
-  return found.sort((a, b) => a.index - b.index || order(a.rule) - order(b.rule));
+  return found.sort((a, b) => a.index - b.index || RULE_ORDER[a.rule] - RULE_ORDER[b.rule]);
 }
