@@ -67,7 +67,8 @@ function beyond(rule: RuleId, z: readonly number[], k: number): RuleViolation[] 
 function mOfW(rule: RuleId, z: readonly number[], m: number, w: number, k: number): RuleViolation[] {
   const out: RuleViolation[] = [];
   for (const side of [1, -1] as Side[]) {
-    const hit = z.map((v) => side * v > k);
+    const hit = new Uint8Array(z.length);
+    for (let i = 0; i < z.length; i++) hit[i] = side * z[i] > k ? 1 : 0;
     let count = 0;
     for (let end = 0; end < z.length; end++) {
       if (hit[end]) count++;
@@ -94,7 +95,7 @@ function mOfW(rule: RuleId, z: readonly number[], m: number, w: number, k: numbe
  */
 function runs(
   rule: RuleId,
-  met: readonly boolean[],
+  met: ArrayLike<number | boolean>,
   len: number,
   words: (from: number, to: number) => string,
 ): RuleViolation[] {
@@ -116,35 +117,35 @@ function runs(
 
 /** `len` points in a row strictly on one side of the centre line. */
 function sameSide(rule: RuleId, z: readonly number[], len: number): RuleViolation[] {
-  const met: boolean[] = [];
+  const met = new Uint8Array(z.length);
   let run = 0;
   let side = 0;
-  z.forEach((v, i) => {
-    const s = Math.sign(v);
+  for (let i = 0; i < z.length; i++) {
+    const s = Math.sign(z[i]);
     run = s !== 0 && s === side ? run + 1 : s !== 0 ? 1 : 0;
     side = s;
-    met[i] = run >= len;
-  });
+    met[i] = run >= len ? 1 : 0;
+  }
   return runs(rule, met, len, (_f, to) => `all lie ${sideWord(z[to] > 0 ? 1 : -1)} the centre line`);
 }
 
 /** N3: `len` points in a row each higher (or each lower) than the one before. */
 function trend(z: readonly number[], len: number): RuleViolation[] {
-  const met: boolean[] = [false];
+  const met = new Uint8Array(z.length);
   let steps = 0;
   let dir = 0;
   for (let i = 1; i < z.length; i++) {
     const d = Math.sign(z[i] - z[i - 1]);
     steps = d !== 0 && d === dir ? steps + 1 : d !== 0 ? 1 : 0;
     dir = d;
-    met[i] = steps >= len - 1;
+    met[i] = steps >= len - 1 ? 1 : 0;
   }
   return runs('N3', met, len, (_f, to) => (z[to] > z[to - 1] ? 'rise steadily' : 'fall steadily'));
 }
 
 /** N4: `len` points in a row alternating up and down. */
 function alternating(z: readonly number[], len: number): RuleViolation[] {
-  const met: boolean[] = [false];
+  const met = new Uint8Array(z.length);
   let run = 0;
   let prev = 0;
   for (let i = 1; i < z.length; i++) {
@@ -152,24 +153,25 @@ function alternating(z: readonly number[], len: number): RuleViolation[] {
     run = d !== 0 && d === -prev ? run + 1 : d !== 0 ? 1 : 0;
     prev = d;
     // run counts alternating steps; len points need len − 1 steps
-    met[i] = run >= len - 1;
+    met[i] = run >= len - 1 ? 1 : 0;
   }
   return runs('N4', met, len, () => 'alternate up and down');
 }
 
 /** N7 (inside = true): `len` in a row within 1σ; N8 (inside = false): `len` in a row outside 1σ, both sides. */
 function band(rule: 'N7' | 'N8', z: readonly number[], len: number, inside: boolean): RuleViolation[] {
-  const met: boolean[] = [];
+  const met = new Uint8Array(z.length);
   let run = 0;
   let lastAbove = -1;
   let lastBelow = -1;
-  z.forEach((v, i) => {
+  for (let i = 0; i < z.length; i++) {
+    const v = z[i];
     run = (inside ? Math.abs(v) < 1 : Math.abs(v) > 1) ? run + 1 : 0;
     if (v > 0) lastAbove = i;
     if (v < 0) lastBelow = i;
     const start = i - len + 1;
-    met[i] = run >= len && (inside || (lastAbove >= start && lastBelow >= start));
-  });
+    met[i] = run >= len && (inside || (lastAbove >= start && lastBelow >= start)) ? 1 : 0;
+  }
   return inside
     ? runs(rule, met, len, () => 'all lie within 1 σ of the centre line: less spread than the limits assume')
     : runs(rule, met, len, () => 'all lie more than 1 σ from the centre line, on both sides of it');
@@ -193,7 +195,8 @@ export function evaluateRunRules(points: readonly number[], centre: number, sigm
     throw new RangeError(`unknown rule set "${String(ruleSet)}"; use "western-electric" or "nelson"`);
   }
   if (sigma === 0) return [];
-  const z = points.map((p) => (p - centre) / sigma);
+  const z = new Array<number>(points.length);
+  for (let i = 0; i < points.length; i++) z[i] = (points[i] - centre) / sigma;
   const found =
     ruleSet === 'western-electric'
       ? [...beyond('WE1', z, 3), ...mOfW('WE2', z, 2, 3, 2), ...mOfW('WE3', z, 4, 5, 1), ...sameSide('WE4', z, 8)]
