@@ -5,8 +5,8 @@ import { chartConstants } from './chart-constants';
 /**
  * Exact constants by numerical integration, with @stdlib normal cdf as the reference Φ:
  * d2 = E(R) = ∫ [1 − Φⁿ − (1 − Φ)ⁿ] dx, and E(R²) = 2 ∬_{x<y} [1 − Φ(y)ⁿ − (1 − Φ(x))ⁿ + (Φ(y) − Φ(x))ⁿ] dx dy
- * (the range of n normal observations, Tippett 1925; the formulas the SAS/QC documentation "Computing control
- * chart constants" gives), d3 = √(E(R²) − d2²).
+ * (the distribution of the range of n normal observations, Tippett 1925, as the SAS/QC documentation on control
+ * chart constants states it), d3 = √(E(R²) − d2²).
  */
 function grid(step: number): number[] {
   return Array.from({ length: Math.round(16 / step) + 1 }, (_, i) => cdf(-8 + i * step, 0, 1));
@@ -48,7 +48,7 @@ describe('control chart constants (Montgomery, ISQC Appendix VI)', () => {
       // printed tables round to 3 decimals and disagree in the last digit (D4(3) 2.574 / 2.575), so ±0.001
       expect(Math.abs(k.d2 - ex.d2)).toBeLessThanOrEqual(0.0006);
       expect(Math.abs(k.d3 - ex.d3)).toBeLessThanOrEqual(0.001);
-      // A2 = 3/(d2√n), D3 = max(0, 1 − 3d3/d2), D4 = 1 + 3d3/d2 (SAS/QC "Computing control chart constants")
+      // A2 = 3/(d2√n), D3 = max(0, 1 − 3d3/d2), D4 = 1 + 3d3/d2 (SAS/QC documentation, control chart constants)
       expect(Math.abs(k.A2 - 3 / (ex.d2 * Math.sqrt(n)))).toBeLessThanOrEqual(0.001);
       expect(Math.abs(k.D3 - Math.max(0, 1 - (3 * ex.d3) / ex.d2))).toBeLessThanOrEqual(0.001);
       expect(Math.abs(k.D4 - (1 + (3 * ex.d3) / ex.d2))).toBeLessThanOrEqual(0.001);
@@ -56,8 +56,9 @@ describe('control chart constants (Montgomery, ISQC Appendix VI)', () => {
   });
 
   it('agree with the 4- and 5-decimal values published elsewhere', () => {
-    // qicharts vignette, Table A.1 "Shewhart constants": d2(3) = 1.6926, d3(3) = 0.8884, D4(3) = 2.5746,
-    // d2(4) = 2.0588, d3(4) = 0.8798, D4(4) = 2.2821; Origin LabTalk QCD2(4) = 2.05875
+    // 4-decimal "Table A.1 Shewhart constants" (appendix A, p. 286 of a control-chart text, seen quoted on a public
+    // web page): d2(3) = 1.6926, d3(3) = 0.8884, D4(3) = 2.5746, d2(4) = 2.0588, d3(4) = 0.8798;
+    // OriginLab LabTalk function reference, QCD2(4) returns 2.05875
     expect(exactConstants(3).d2).toBeCloseTo(1.6926, 4);
     expect(exactConstants(3).d3).toBeCloseTo(0.8884, 4);
     expect(1 + (3 * exactConstants(3).d3) / exactConstants(3).d2).toBeCloseTo(2.5746, 4);

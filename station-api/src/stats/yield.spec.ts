@@ -92,8 +92,8 @@ describe('yieldFigures', () => {
 
 describe('rolledThroughputYield', () => {
   it('multiplies step yields', () => {
-    // Six Sigma yield metrics, worked example 0.98 × 0.95 × 0.99 = 0.92169 (self-constructed counts giving
-    // those step yields); normalized yield = RTY^(1/3)
+    // self-constructed example: step yields 0.98, 0.95, 0.99 → RTY = 0.92169, normalised yield = RTY^(1/3);
+    // step b's interval is the SciPy-checked 95/100 interval above
     const r = rolledThroughputYield([
       { step: 'a', entered: 100, passedFirstTime: 98 },
       { step: 'b', entered: 100, passedFirstTime: 95 },
@@ -105,9 +105,10 @@ describe('rolledThroughputYield', () => {
     expect(r.steps[1].lower).toBeCloseTo(0.8882495307680809, 13);
   });
 
-  it('reproduces a published three-step example: throughput yields 0.80, 79/100 of 85…, RTY ≈ 45 %', () => {
-    // "Yield and Defect Metrics" worksheet (scribd): step 1 100 in, 80 first-time; step 2 85 in, 67 first-time;
-    // step 3 75 in, 54 first-time; printed RTY 45 % (0.8 × 0.788235 × 0.72 = 0.454024)
+  it('reproduces a published three-step example: RTY 45 %, normalised yield 77 %', () => {
+    // "Yield and Defect Metrics" worksheet (public copy on scribd.com): step 1 100 submitted, 15 scrapped, 5 reworked
+    // (80 first time); step 2 85 / 10 / 8 (67); step 3 75 / 20 / 1 (54); printed RTY 45 %, normalised yield 77 %
+    // (0.8 × 67/85 × 0.72 = 0.454024; 0.454024^(1/3) = 0.768587)
     const r = rolledThroughputYield([
       { step: '1', entered: 100, passedFirstTime: 80 },
       { step: '2', entered: 85, passedFirstTime: 67 },
