@@ -9,3 +9,4 @@ export * from './normality';
 export * from './histogram';
 export * from './pareto';
 export * from './limits';
+export * from './shapiro-wilk';
