@@ -1,8 +1,9 @@
 /**
  * Control-chart constants for subgroups of n = 2..10 normal observations, to the three decimals of the printed
  * tables: Montgomery, Introduction to Statistical Quality Control, Appendix VI "Factors for Constructing Variables
- * Control Charts", and the same values in Table A.22 "Factors for Constructing Control Charts" of common
- * engineering-statistics textbooks (ASTM E2587 tabulates the same factors).
+ * Control Charts", and the same values in Table A.22 "Factors for Constructing Control Charts" of a common
+ * engineering-statistics textbook. (ASTM E2587 is the usual standard citation for such a table; its text was not
+ * consulted here.)
  *
  * - d2: expected range of n standard normal observations, E(R) = d2·σ (so σ̂ = R̄/d2);
  * - d3: standard deviation of that range;
