@@ -4,8 +4,7 @@ import { twoSidedZ } from './normal';
 /**
  * Yield figures of a test station and their confidence intervals.
  *
- * Definitions (Six Sigma yield metrics as commonly stated, e.g. in the NIST/SEMATECH e-Handbook's process
- * capability chapter and in Montgomery, Introduction to Statistical Quality Control):
+ * Definitions (the yield metrics of Six Sigma practice, as commonly stated in quality-engineering texts):
  * - first-pass yield FPY = units that passed on their first attempt / units tested;
  * - final yield = units that passed in the end (after retests or rework) / units tested;
  * - rolled throughput yield RTY = product of the first-pass yields of the process steps in sequence.
