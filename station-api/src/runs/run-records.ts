@@ -89,7 +89,8 @@ export class RunRecords {
       );
     } catch (err) {
       if (err instanceof UniqueConstraintViolationException) {
-        if (/station_id/.test(err.message)) {
+        // SQLite names the column of the index that refused: "UNIQUE constraint failed: test_runs.station_id"
+        if (/constraint failed: test_runs\.station_id/.test(err.message)) {
           throw new RunRefusal('station_busy', `Station ${r.stationCode} is already testing another unit; wait for it to finish.`);
         }
         throw unitBusy(r.serial);
