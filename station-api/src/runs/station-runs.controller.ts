@@ -14,9 +14,9 @@ import { Roles } from '../common/decorators/roles.decorator';
 import { ROLES } from '../users/user.entity';
 import { ScanDto, ScanResultDto, StartedRunDto, StartRunDto, StationStatusDto } from './dto/runs.dto';
 import { RunEngineService } from './run-engine.service';
+import { REFUSAL_CODES } from './run-refusal';
 
-const REFUSALS =
-  'details.code one of unknown_serial, pattern_mismatch, wrong_lot, already_passed, retest_limit, station_blocked, station_busy, unit_not_testable';
+const REFUSALS = `details.code one of ${REFUSAL_CODES.join(', ')} (see runs/run-refusal.ts for the HTTP status of each)`;
 
 /** The operator's routes on a station: status, scan, start. (Station master data lives in the stations feature.) */
 @ApiTags('runs')
@@ -40,7 +40,7 @@ export class StationRunsController {
   @ApiOperation({ summary: 'Check a scanned serial against the station, its lot and plan; nothing is powered' })
   @ApiOkResponse({ type: ScanResultDto })
   @ApiConflictResponse({ description: REFUSALS })
-  @ApiUnprocessableEntityResponse({ description: 'details.code pattern_mismatch' })
+  @ApiUnprocessableEntityResponse({ description: 'details.code pattern_mismatch or not_a_serial' })
   scan(@Param('id', ParseIntPipe) id: number, @Body() dto: ScanDto, @CurrentUser() user: AuthUser): Promise<ScanResultDto> {
     return this.engine.scan(id, dto.serial, { id: user.id, roles: user.roles });
   }
