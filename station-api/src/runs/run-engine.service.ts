@@ -56,7 +56,7 @@ export class RunEngineService implements OnApplicationBootstrap, BeforeApplicati
   /** Before the server accepts work: close runs a stopped server left open, prepare fixtures, announce states. */
   async onApplicationBootstrap(): Promise<void> {
     try {
-      await this.records.recoverInterrupted();
+      await this.records.recoverInterrupted(new Set(this.active.all().map((a) => a.runId)));
     } catch (err) {
       this.logger.error(`Could not close the runs left open by the last stop: ${(err as Error).message}`);
     }

@@ -150,11 +150,12 @@ export class RunRecords {
    * Closes every run left `running` by a server that stopped during it (a crash, a power cut, kill -9):
    * verdict `error`, end reason `interrupted`, a message saying when and where it stopped (its last stored
    * measurement tells), counted as an attempt of the unit (which it never passes), its measurements kept,
-   * and audited. Call before the server accepts work: nothing can be running yet.
+   * and audited. Call before the server accepts work; runs this process is driving (`live`) are left alone.
    */
-  async recoverInterrupted(): Promise<InterruptedRun[]> {
+  async recoverInterrupted(live: ReadonlySet<number> = new Set()): Promise<InterruptedRun[]> {
     const em = this.em.fork();
-    const runs = await em.find(TestRun, { verdict: RunVerdict.Running }, { populate: ['unit', 'station'], orderBy: { id: 'asc' } });
+    const found = await em.find(TestRun, { verdict: RunVerdict.Running }, { populate: ['unit', 'station'], orderBy: { id: 'asc' } });
+    const runs = found.filter((r) => !live.has(r.id));
     const closed: InterruptedRun[] = [];
     for (const run of runs) {
       const last = await em.findOne(Measurement, { run: run.id }, { orderBy: { measuredAt: 'desc', id: 'desc' } });
