@@ -19,16 +19,21 @@ describe('run engine at server shutdown', () => {
       await reached;
       const finished = h.finished(start.body.run.id);
       await t.app.close();
-      expect((await finished).verdict).toBe('aborted');
+      const f = await finished;
+      // issue 8 defect 7: a shutdown is not an operator stop
+      expect(f).toMatchObject({ verdict: 'aborted', endReason: 'server_shutdown', errorMessage: 'Stopped: station server shut down' });
       // the verdict reached the database before it closed
       const db = new sqlite3.Database(t.dbPath);
-      const row = await new Promise<{ verdict: string }>((resolve, reject) =>
-        db.get('select verdict from test_runs where id = ?', [start.body.run.id], (err: Error | null, r: { verdict: string }) => (err ? reject(err) : resolve(r))),
+      type Row = { verdict: string; end_reason: string; error_message: string };
+      const row = await new Promise<Row>((resolve, reject) =>
+        db.get('select verdict, end_reason, error_message from test_runs where id = ?', [start.body.run.id], (err: Error | null, r: Row) =>
+          err ? reject(err) : resolve(r),
+        ),
       );
       await new Promise((resolve) => db.close(resolve));
       await t.close();
       closed = true;
-      expect(row.verdict).toBe('aborted');
+      expect(row).toEqual({ verdict: 'aborted', end_reason: 'server_shutdown', error_message: 'Stopped: station server shut down' });
       expect(sim.simulator.state()).toMatchObject({ sourceOn: false, loadOn: false });
       expect(sim.log).toContain('LOAD OFF');
     } finally {

@@ -160,6 +160,7 @@ describe('run engine through the simulated fixture', () => {
       expect(abortStatus).toBe(200);
       expect(r.verdict).toBe('aborted');
       expect(r.errorMessage).toBe('Aborted by the operator');
+      expect(r.endReason).toBe('operator_stop');
       expect(sim.log.slice(-2)).toEqual(['LOAD OFF', 'OUTP OFF']);
       expect(sim.simulator.state()).toMatchObject({ sourceOn: false, loadOn: false });
       const detail = await h.detail(r.runId);
@@ -167,6 +168,7 @@ describe('run engine through the simulated fixture', () => {
       // steps 0–2 done; the abort lands during step 3 or 4 at the latest
       expect(steps.length).toBeGreaterThanOrEqual(3);
       expect(steps.length).toBeLessThanOrEqual(5);
+      expect(detail.endReason).toBe('operator_stop');
       expect(r.unit).toMatchObject({ state: 'untested', testCount: 0 });
     } finally {
       stop();

@@ -45,7 +45,9 @@ describe('runs REST', () => {
   it('refuses a serial of another form with pattern_mismatch', async () => {
     const res = await scan(eol1, 'K5A-26X8-0001').expect(422);
     expect(res.body).toMatchObject({ statusCode: 422, details: { code: 'pattern_mismatch' } });
-    expect(res.body.message).toContain('is not a OB-BK0503 serial');
+    expect(res.body.message).toContain('does not match the serial form for OB-BK0503');
+    // no "a OB-…" grammar slip
+    expect(res.body.message).not.toMatch(/\ba OB-/);
   });
 
   it('refuses a well-formed serial nobody registered with unknown_serial', async () => {

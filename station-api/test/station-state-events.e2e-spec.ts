@@ -231,7 +231,7 @@ describe('station state announced on master-data changes', () => {
       const finishedAt = room.findIndex((e, i) => i >= from && e.name === 'run:finished');
       expect(finishedAt).toBeGreaterThanOrEqual(changedAt);
       // while the unit was under test, nothing but 'testing'
-      const during = room.slice(from, finishedAt).filter((e) => e.name === 'station:state') as { payload: StationStatePayload }[];
+      const during = room.slice(from, finishedAt).filter((e) => e.name === 'station:state') as unknown as { payload: StationStatePayload }[];
       expect(during.map((e) => e.payload.state)).toEqual(['testing']);
       // after it, the calibration that lapsed during the run
       const after = await stateEvent(room, finishedAt, (p) => p.state === 'blocked');

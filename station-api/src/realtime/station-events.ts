@@ -10,6 +10,21 @@
 export type StationState = 'idle' | 'ready' | 'testing' | 'fault' | 'blocked';
 export type RunVerdictName = 'running' | 'pass' | 'fail' | 'error' | 'aborted';
 export type MeasurementVerdictName = 'pass' | 'fail' | 'guard_fail';
+/** ILAC-G8:09/2019 §4.2.3 non-binary decision statement of a measurement */
+export type DecisionStatementName = 'pass' | 'conditional_pass' | 'conditional_fail' | 'fail';
+/**
+ * Why a run ended without a judged verdict: stopped by the operator, by a server shutdown, cut off by a
+ * server crash (found running at start-up), a fixture or software fault, a physically impossible reading,
+ * or a measurement that could not be stored. Judged runs (pass, fail) and running ones have none.
+ */
+export type RunEndReasonName =
+  | 'operator_stop'
+  | 'server_shutdown'
+  | 'interrupted'
+  | 'fixture_fault'
+  | 'software_fault'
+  | 'implausible_reading'
+  | 'store_failed';
 
 export interface StationEventBase {
   stationId: number;
@@ -63,6 +78,8 @@ export interface RunView {
   durationMs: number | null;
   failedStepKey: string | null;
   errorMessage: string | null;
+  /** Why the run ended without a judged verdict; null for pass, fail and running */
+  endReason: RunEndReasonName | null;
   fixtureIdentity: string | null;
   fixtureCalibrationDueAt: string | null;
   fixtureContactCycles: number | null;
@@ -100,6 +117,8 @@ export interface MeasurementView {
   uncertainty: number;
   rule: string;
   verdict: MeasurementVerdictName;
+  /** ILAC-G8:09/2019 §4.2.3 statement; null when there was no plausible value (or recorded before it was stored) */
+  decision: DecisionStatementName | null;
   raw: Record<string, unknown> | null;
   startedAt: string;
   measuredAt: string;
@@ -138,6 +157,8 @@ export interface RunFinishedPayload extends StationEventBase {
   /** Every measurement that did not pass, in order */
   failures: MeasurementView[];
   errorMessage?: string;
+  /** Why the run ended without a judged verdict (absent for pass and fail) */
+  endReason?: RunEndReasonName;
   durationMs: number;
   /** The unit after the run (state, test count) */
   unit: UnitView;

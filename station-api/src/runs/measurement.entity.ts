@@ -62,6 +62,10 @@ export class Measurement extends BaseEntity {
   @Enum(() => MeasurementVerdict)
   verdict!: MeasurementVerdict;
 
+  /** ILAC-G8:09/2019 §4.2.3 non-binary statement (pass, conditional_pass, conditional_fail, fail); null without a plausible value */
+  @Property({ type: 'text', nullable: true })
+  decision?: 'pass' | 'conditional_pass' | 'conditional_fail' | 'fail';
+
   /** Raw fixture readings the value was computed from (and the capture summary) */
   @Property({ type: 'json', nullable: true })
   raw?: Record<string, unknown>;

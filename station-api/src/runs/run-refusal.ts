@@ -1,5 +1,9 @@
+import { HttpException } from '@nestjs/common';
+
 /** Why a scan or a run start was refused; `code` is the machine-readable `details.code` of the API error. */
 export type RefusalCode =
+  /** text that cannot be a serial at all (spaces, symbols no label carries, too long) */
+  | 'not_a_serial'
   | 'unknown_serial'
   | 'pattern_mismatch'
   | 'wrong_lot'
@@ -7,6 +11,8 @@ export type RefusalCode =
   | 'retest_limit'
   | 'station_blocked'
   | 'station_busy'
+  /** the unit is under test on another station */
+  | 'unit_busy'
   /** the unit is in repair or scrapped */
   | 'unit_not_testable'
   /** a passed unit's retest was asked for without the engineer role */
@@ -15,7 +21,9 @@ export type RefusalCode =
   | 'run_not_found'
   | 'run_finished';
 
-const STATUS: Record<RefusalCode, number> = {
+/** HTTP status of each refusal: the one place refusals are mapped to HTTP. */
+export const REFUSAL_STATUS: Record<RefusalCode, number> = {
+  not_a_serial: 422,
   unknown_serial: 404,
   pattern_mismatch: 422,
   wrong_lot: 409,
@@ -23,6 +31,7 @@ const STATUS: Record<RefusalCode, number> = {
   retest_limit: 409,
   station_blocked: 409,
   station_busy: 409,
+  unit_busy: 409,
   unit_not_testable: 409,
   override_not_allowed: 403,
   station_not_found: 404,
@@ -30,8 +39,14 @@ const STATUS: Record<RefusalCode, number> = {
   run_finished: 409,
 };
 
-/** A refusal before any power is applied, with a message for the person at the station. */
-export class RunRefusal extends Error {
+export const REFUSAL_CODES = Object.keys(REFUSAL_STATUS) as RefusalCode[];
+
+/**
+ * A refusal before any power is applied, with a message for the person at the station. An HttpException,
+ * so the global error filter answers it as every API error (`details.code` plus any extra details) and no
+ * route needs to map it.
+ */
+export class RunRefusal extends HttpException {
   readonly httpStatus: number;
 
   constructor(
@@ -39,8 +54,29 @@ export class RunRefusal extends Error {
     message: string,
     readonly extra: Record<string, unknown> = {},
   ) {
-    super(message);
+    super({ message, details: { code, ...extra } }, REFUSAL_STATUS[code]);
     this.name = 'RunRefusal';
-    this.httpStatus = STATUS[code];
+    this.httpStatus = REFUSAL_STATUS[code];
   }
+}
+
+/** Longest text taken as a serial; the demo patterns produce 14 characters, a scan error gives far more. */
+const MAX_SERIAL_LENGTH = 64;
+/** Characters a serial label may carry (after upper-casing): letters, digits and a few separators. */
+const SERIAL_CHARS = /^[A-Z0-9][A-Z0-9._/-]*$/;
+
+/**
+ * A scanned or typed serial as it is looked up: trimmed and upper-cased (a serial typed by hand in lower
+ * case is the same unit). Refuses with `not_a_serial` text that cannot be a serial at all.
+ */
+export function normaliseSerial(input: string): string {
+  const serial = String(input ?? '').trim().toUpperCase();
+  if (!serial || serial.length > MAX_SERIAL_LENGTH || !SERIAL_CHARS.test(serial)) {
+    const shown = serial.length > 40 ? `${serial.slice(0, 40)}…` : serial;
+    throw new RunRefusal(
+      'not_a_serial',
+      serial ? `"${shown}" is not a serial number. Scan the label on the unit again.` : 'No serial number was given. Scan the label on the unit.',
+    );
+  }
+  return serial;
 }

@@ -3,7 +3,6 @@ import { ApiBearerAuth, ApiConflictResponse, ApiNotFoundResponse, ApiOkResponse,
 import { Roles } from '../common/decorators/roles.decorator';
 import { ROLES } from '../users/user.entity';
 import { AbortResultDto, RunDetailDto, RunListDto, RunsQueryDto } from './dto/runs.dto';
-import { refusing } from './refusal-http';
 import { RunEngineService } from './run-engine.service';
 import { RunsService } from './runs.service';
 
@@ -30,7 +29,7 @@ export class RunsController {
   @ApiOkResponse({ type: RunDetailDto })
   @ApiNotFoundResponse({ description: 'details.code run_not_found' })
   get(@Param('id', ParseIntPipe) id: number): Promise<RunDetailDto> {
-    return refusing(this.runs.get(id));
+    return this.runs.get(id);
   }
 
   @Post(':id/abort')
@@ -40,7 +39,12 @@ export class RunsController {
   @ApiOkResponse({ type: AbortResultDto })
   @ApiConflictResponse({ description: 'details.code run_finished' })
   async abort(@Param('id', ParseIntPipe) id: number): Promise<AbortResultDto> {
-    const outcome = await refusing(this.engine.abort(id));
-    return { runId: outcome.runId, verdict: outcome.verdict, ...(outcome.errorMessage ? { errorMessage: outcome.errorMessage } : {}) };
+    const outcome = await this.engine.abort(id);
+    return {
+      runId: outcome.runId,
+      verdict: outcome.verdict,
+      ...(outcome.errorMessage ? { errorMessage: outcome.errorMessage } : {}),
+      ...(outcome.endReason ? { endReason: outcome.endReason } : {}),
+    };
   }
 }

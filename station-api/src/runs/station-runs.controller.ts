@@ -13,11 +13,10 @@ import { AuthUser, CurrentUser } from '../common/decorators/current-user.decorat
 import { Roles } from '../common/decorators/roles.decorator';
 import { ROLES } from '../users/user.entity';
 import { ScanDto, ScanResultDto, StartedRunDto, StartRunDto, StationStatusDto } from './dto/runs.dto';
-import { refusing } from './refusal-http';
 import { RunEngineService } from './run-engine.service';
+import { REFUSAL_CODES } from './run-refusal';
 
-const REFUSALS =
-  'details.code one of unknown_serial, pattern_mismatch, wrong_lot, already_passed, retest_limit, station_blocked, station_busy, unit_not_testable';
+const REFUSALS = `details.code one of ${REFUSAL_CODES.join(', ')} (see runs/run-refusal.ts for the HTTP status of each)`;
 
 /** The operator's routes on a station: status, scan, start. (Station master data lives in the stations feature.) */
 @ApiTags('runs')
@@ -32,7 +31,7 @@ export class StationRunsController {
   @ApiOkResponse({ type: StationStatusDto })
   @ApiNotFoundResponse({ description: 'details.code station_not_found' })
   status(@Param('id', ParseIntPipe) id: number): Promise<StationStatusDto> {
-    return refusing(this.engine.status(id));
+    return this.engine.status(id);
   }
 
   @Post(':id/scan')
@@ -41,9 +40,9 @@ export class StationRunsController {
   @ApiOperation({ summary: 'Check a scanned serial against the station, its lot and plan; nothing is powered' })
   @ApiOkResponse({ type: ScanResultDto })
   @ApiConflictResponse({ description: REFUSALS })
-  @ApiUnprocessableEntityResponse({ description: 'details.code pattern_mismatch' })
+  @ApiUnprocessableEntityResponse({ description: 'details.code pattern_mismatch or not_a_serial' })
   scan(@Param('id', ParseIntPipe) id: number, @Body() dto: ScanDto, @CurrentUser() user: AuthUser): Promise<ScanResultDto> {
-    return refusing(this.engine.scan(id, dto.serial, { id: user.id, roles: user.roles }));
+    return this.engine.scan(id, dto.serial, { id: user.id, roles: user.roles });
   }
 
   @Post(':id/runs')
@@ -52,15 +51,13 @@ export class StationRunsController {
   @ApiCreatedResponse({ type: StartedRunDto })
   @ApiConflictResponse({ description: REFUSALS })
   async start(@Param('id', ParseIntPipe) id: number, @Body() dto: StartRunDto, @CurrentUser() user: AuthUser): Promise<StartedRunDto> {
-    const started = await refusing(
-      this.engine.start({
+    const started = await this.engine.start({
         stationId: id,
         serial: dto.serial,
         requester: { id: user.id, roles: user.roles, displayName: user.displayName },
         safetyConfirmed: dto.safetyConfirmed,
         overrideReason: dto.overrideReason,
-      }),
-    );
+      });
     // the run goes on; a failure there is reported as its verdict, never as an unhandled rejection
     started.done.catch(() => undefined);
     return { run: started.run };

@@ -91,7 +91,7 @@ export class StationStateNotifier implements EventSubscriber, OnModuleInit {
   }
 
   private announce(touched: TouchedRecords): void {
-    this.engine.announceState(this.affectedStations(touched));
+    this.engine.stationStatus.announceState(this.affectedStations(touched));
   }
 
   /** The stations holding a touched fixture or lot, or testing a product whose plan changed, and the touched stations. */

@@ -18,12 +18,26 @@ export enum RunVerdict {
   Aborted = 'aborted',
 }
 
+/** Why a run ended without a judged verdict (see `RunEndReasonName` in the live-event contract). */
+export enum RunEndReason {
+  OperatorStop = 'operator_stop',
+  ServerShutdown = 'server_shutdown',
+  /** found running at start-up: the server stopped during it */
+  Interrupted = 'interrupted',
+  FixtureFault = 'fixture_fault',
+  SoftwareFault = 'software_fault',
+  ImplausibleReading = 'implausible_reading',
+  StoreFailed = 'store_failed',
+}
+
 /** One test of one unit on one station. Lot and product are copied for fast yield queries. */
 @Entity({ tableName: 'test_runs' })
 @Index({ properties: ['lot', 'startedAt'] })
 @Index({ properties: ['station', 'startedAt'] })
 @Index({ properties: ['fixture', 'startedAt'] })
 @Index({ properties: ['product', 'startedAt'] })
+// at most one running run per unit and per station: partial unique indexes created by Migration20261202130000
+// (MikroORM cannot declare a partial index on an entity)
 export class TestRun extends BaseEntity {
   @ManyToOne(() => Unit)
   unit!: Unit;
@@ -45,6 +59,10 @@ export class TestRun extends BaseEntity {
 
   @ManyToOne(() => User)
   operator!: User;
+
+  /** The operator's display name when the run started; views show it, so renaming a user changes no past run */
+  @Property({ type: 'text', nullable: true })
+  operatorName?: string;
 
   /** 1 for the first test of the unit, 2 for the first retest, ... */
   @Property()
@@ -68,6 +86,10 @@ export class TestRun extends BaseEntity {
 
   @Property({ type: 'text', nullable: true })
   errorMessage?: string;
+
+  /** Why the run ended without a judged verdict; null for pass, fail and running */
+  @Enum({ items: () => RunEndReason, nullable: true })
+  endReason?: RunEndReason;
 
   /** Snapshot of the fixture at start: identification reply, calibration due date, cycle count */
   @Property({ nullable: true })

@@ -30,6 +30,16 @@ export class StartRunDto extends ScanDto {
 }
 
 export const RUN_VERDICTS = ['running', 'pass', 'fail', 'error', 'aborted'] as const;
+export const RUN_END_REASONS = [
+  'operator_stop',
+  'server_shutdown',
+  'interrupted',
+  'fixture_fault',
+  'software_fault',
+  'implausible_reading',
+  'store_failed',
+] as const satisfies readonly NonNullable<RunView['endReason']>[];
+export const DECISION_STATEMENTS = ['pass', 'conditional_pass', 'conditional_fail', 'fail'] as const satisfies readonly NonNullable<MeasurementView['decision']>[];
 
 export class RunsQueryDto {
   @ApiPropertyOptional() @IsOptional() @Type(() => Number) @IsInt() @Min(1) stationId?: number;
@@ -83,6 +93,8 @@ export class RunDto implements RunView {
   @ApiProperty({ type: Number, nullable: true }) durationMs!: number | null;
   @ApiProperty({ type: String, nullable: true }) failedStepKey!: string | null;
   @ApiProperty({ type: String, nullable: true }) errorMessage!: string | null;
+  @ApiProperty({ enum: RUN_END_REASONS, nullable: true, description: 'why the run ended without a judged verdict; null for pass, fail and running' })
+  endReason!: RunView['endReason'];
   @ApiProperty({ type: String, nullable: true }) fixtureIdentity!: string | null;
   @ApiProperty({ type: String, nullable: true }) fixtureCalibrationDueAt!: string | null;
   @ApiProperty({ type: Number, nullable: true }) fixtureContactCycles!: number | null;
@@ -107,6 +119,8 @@ export class MeasurementDto implements MeasurementView {
   @ApiProperty() uncertainty!: number;
   @ApiProperty() rule!: string;
   @ApiProperty({ enum: ['pass', 'fail', 'guard_fail'] }) verdict!: MeasurementView['verdict'];
+  @ApiProperty({ enum: DECISION_STATEMENTS, nullable: true, description: 'ILAC-G8:09/2019 §4.2.3 decision statement; null without a plausible value' })
+  decision!: MeasurementView['decision'];
   @ApiProperty({ type: Object, nullable: true }) raw!: Record<string, unknown> | null;
   @ApiProperty() startedAt!: string;
   @ApiProperty() measuredAt!: string;
@@ -140,6 +154,7 @@ export class AbortResultDto {
   @ApiProperty() runId!: number;
   @ApiProperty({ enum: ['pass', 'fail', 'error', 'aborted'] }) verdict!: string;
   @ApiPropertyOptional() errorMessage?: string;
+  @ApiPropertyOptional({ enum: RUN_END_REASONS }) endReason?: string;
 }
 
 class ScanLotDto {
