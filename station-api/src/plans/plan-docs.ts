@@ -33,6 +33,10 @@ export function buildStepKindTables(): string {
     lines.push(`| ${code(name)} | ${def.unit || '–'} | ${boundsText(def.schema) || '–'} | ${def.description} |`);
   }
   lines.push('');
+  lines.push('What the fixture does in each kind (after `UUT:SER`):');
+  lines.push('');
+  for (const def of ALL_STEP_KINDS) lines.push(`- ${code(def.kind)}: ${def.sequence}.`);
+  lines.push('');
   lines.push('Why each physical range holds:');
   lines.push('');
   for (const def of ALL_STEP_KINDS) {
