@@ -93,6 +93,14 @@ describe('runStep', () => {
     expect(q.problem).toMatch(/input power/);
   });
 
+  it('holds each output reading of a regulation step to the buck range V_out ≤ V_in (Erickson & Maksimović ch. 2, M(D) = D)', async () => {
+    // a 5 V module cannot put out 9.5 V from a 9 V input: a swapped meter channel, not a unit to judge
+    const byVin: Record<number, string> = { 9: '9.5', 12: '5.000', 18: '4.995' };
+    const fx = new ScriptedFixture({ 'MEAS:VOLT:OUT?': (s) => byVin[s.vinV] });
+    const [q] = await runStep(step('line_regulation', { loadA: 1.5 }), ctxFor(fx));
+    expect(q.implausible).toMatch(/^lineRegPct reading at 9 V in reads 9.5 V, outside its physical range −5 % of V_nom ≤ V_out ≤ V_in/);
+  });
+
   it('reports protection flags as 1 / 0', async () => {
     const fx = new ScriptedFixture({ 'PROT:TEST?': () => '0,1,4.9,5.0' });
     const qs = await runStep(step('protection', { overloadA: 4.5 }), ctxFor(fx));
