@@ -169,4 +169,12 @@ describe('plans API', () => {
     expect(syntax.body.errors[0]).toMatchObject({ path: '(syntax)', line: 1 });
     await http().post('/api/plans/validate').set(as(engineer)).send({}).expect(400);
   });
+
+  it('answers a YAML alias bomb with a plan problem, not a 500', async () => {
+    // ten levels of ten aliases each would expand to 10^10 nodes
+    const levels = 'abcdefghij'.split('');
+    const text = ['a: &a [x, x, x, x, x, x, x, x, x, x]', ...levels.slice(1).map((k, i) => `${k}: &${k} [${Array(10).fill(`*${levels[i]}`).join(', ')}]`)].join('\n');
+    const res = await http().post('/api/plans/validate').set(as(engineer)).send({ text }).expect(200);
+    expect(res.body).toMatchObject({ valid: false, errors: [{ path: '(syntax)', message: expect.stringMatching(/YAML aliases expand too far/) }] });
+  });
 });

@@ -233,6 +233,32 @@ describe('errors name the field path and the line', () => {
     expect(issues).toContainEqual(expect.objectContaining({ path: 'header.maxAttempts', line: lineOf(text, 'maxAttempts'), message: 'must be at least 1' }));
   });
 
+  it('an acceptance zone outside the physical range, naming the field and line (issue 8, defect 8)', () => {
+    // ripple ≤ 30 mV, U = 31 mV, guarded (ILAC-G8:09/2019 guard band w = U): acceptance limit −1 mV, but ripple ≥ 0
+    const ripple = edit(GOOD, '        high: 30\n        uncertainty: 1\n        rule: simple', '        high: 30\n        uncertainty: 31\n        rule: guarded');
+    expect(issuesOf(ripple)).toEqual([
+      expect.objectContaining({ path: 'steps[6].limits[0].uncertainty', line: lineOf(ripple, 'uncertainty: 31'), message: expect.stringMatching(/no value inside the physical range 0 mV ≤ ripple/) }),
+    ]);
+    // efficiency ≥ 99.8 %, U = 0.5 %: acceptance from 100.3 %, beyond η < 100 % (conservation of energy)
+    const eff = edit(GOOD, '        low: 93.0\n        uncertainty: 0.4\n        rule: simple', '        low: 99.8\n        uncertainty: 0.5\n        rule: guarded');
+    expect(issuesOf(eff)).toEqual([
+      expect.objectContaining({ path: 'steps[5].limits[0].uncertainty', line: lineOf(eff, 'uncertainty: 0.5'), message: expect.stringMatching(/0 % < η < 100 %/) }),
+    ]);
+  });
+
+  it('a YAML alias bomb is refused as a plan problem, not a crash', () => {
+    const bomb = ['a: &a [x, x, x, x, x, x, x, x, x, x]', ...'bcdefghij'.split('').map((k, i) => `${k}: &${k} [${Array(10).fill(`*${'abcdefghij'[i]}`).join(', ')}]`)].join('\n');
+    const issues = issuesOf(bomb);
+    expect(issues).toEqual([expect.objectContaining({ path: '(syntax)', message: expect.stringMatching(/YAML aliases expand too far/) })]);
+  });
+
+  it('the same limit key rule as the engine: `voutV@` refused, `efficiencyPct@1.5a` accepted', () => {
+    expect(issuesOf(edit(GOOD, 'key: voutV@3', 'key: voutV@'))).toContainEqual(
+      expect.objectContaining({ path: 'steps[2].limits[1].key', message: expect.stringMatching(/efficiencyPct@1.5/) }),
+    );
+    expect(parsePlanText(edit(GOOD, 'key: efficiencyPct@1.5', 'key: efficiencyPct@1.5a'), 'x', { products: PRODUCTS }).issues).toEqual([]);
+  });
+
   it('an empty file', () => {
     expect(issuesOf('')[0]).toMatchObject({ path: '(file)', message: expect.stringMatching(/must be a mapping/) });
   });

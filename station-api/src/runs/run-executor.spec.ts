@@ -12,7 +12,7 @@ import { toMeasurementView } from './run-views';
 
 // the step produces a physically impossible efficiency (the registry's plausibility check sets `implausible`)
 const IMPLAUSIBLE = 'Efficiency 125.0 % at 1.5 A is above 100 %, which conservation of energy rules out: check the input current shunt';
-vi.mock('./step-runner', () => ({
+vi.mock('../plans/step-kinds', () => ({
   runStep: async () => [{ base: 'efficiencyPct', atA: 1.5, value: 125, raw: { pinW: 6, poutW: 7.5 }, implausible: IMPLAUSIBLE }],
   quantityFor: (_key: string, q: unknown[]) => q[0],
 }));

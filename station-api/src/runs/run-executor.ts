@@ -13,7 +13,7 @@ import type { MeasurementStore } from './measurement-store';
 import { OrderedEvents } from './ordered-events';
 import type { RunRecords } from './run-records';
 import type { RunOutcome, StepTiming, StopCause } from './run-types';
-import { quantityFor, runStep } from './step-runner';
+import { quantityFor, runStep } from '../plans/step-kinds';
 import { RunVerdict } from './test-run.entity';
 
 const NO_SAFE_STATE = 'the fixture did not confirm load off and source off — switch the fixture off by hand before opening it';

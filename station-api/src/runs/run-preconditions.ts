@@ -11,7 +11,7 @@ import { ActiveRuns } from './active-runs';
 import { normaliseSerial, RunRefusal } from './run-refusal';
 import type { RunRequester, ScanResult } from './run-types';
 import { toStepOutline, toUnitView } from './run-views';
-import { stepProblems } from './step-runner';
+import { stepProblems } from '../plans/step-kinds';
 import { RunVerdict, TestRun } from './test-run.entity';
 
 /** Everything checked before power: the loaded records a run needs. */

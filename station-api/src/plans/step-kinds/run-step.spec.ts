@@ -1,9 +1,9 @@
 import { EventEmitter } from 'node:events';
 import { describe, expect, it } from 'vitest';
-import type { FixtureTransport, RequestOptions } from '../fixtures/transport/fixture-transport';
-import { ScpiClient } from '../fixtures/transport/scpi-client';
-import type { PlanStep } from '../plans/plan-definition';
-import { parseLimitKey, quantityFor, runStep, stepProblems, StepContext } from './step-runner';
+import type { FixtureTransport, RequestOptions } from '../../fixtures/transport/fixture-transport';
+import { ScpiClient } from '../../fixtures/transport/scpi-client';
+import type { PlanStep } from '../plan-definition';
+import { parseLimitKey, quantityFor, runStep, stepProblems, type StepContext } from './index';
 
 /** A scripted module: readings are functions of what the fixture has set. */
 class ScriptedFixture extends EventEmitter implements FixtureTransport {
@@ -86,11 +86,19 @@ describe('runStep', () => {
   });
 
   it('turns a reading that admits no value into a value-less quantity with the reason', async () => {
-    // an open output draws no input power at load: efficiency cannot be computed, which must fail, not crash
-    const fx = new ScriptedFixture({ 'MEAS:VOLT:IN?': () => '12', 'MEAS:CURR:IN?': () => '0', 'MEAS:VOLT:OUT?': () => '0', 'MEAS:CURR:OUT?': () => '0' });
+    // no input current read while the output delivers power: efficiency cannot be computed, which must fail, not crash
+    const fx = new ScriptedFixture({ 'MEAS:VOLT:IN?': () => '12', 'MEAS:CURR:IN?': () => '0', 'MEAS:VOLT:OUT?': () => '5', 'MEAS:CURR:OUT?': () => '1.5' });
     const [q] = await runStep(step('efficiency', { loadsA: [1.5] }), ctxFor(fx));
     expect(q.value).toBeNull();
     expect(q.problem).toMatch(/input power/);
+  });
+
+  it('holds each output reading of a regulation step to the buck range V_out ≤ V_in (Erickson & Maksimović ch. 2, M(D) = D)', async () => {
+    // a 5 V module cannot put out 9.5 V from a 9 V input: a swapped meter channel, not a unit to judge
+    const byVin: Record<number, string> = { 9: '9.5', 12: '5.000', 18: '4.995' };
+    const fx = new ScriptedFixture({ 'MEAS:VOLT:OUT?': (s) => byVin[s.vinV] });
+    const [q] = await runStep(step('line_regulation', { loadA: 1.5 }), ctxFor(fx));
+    expect(q.implausible).toMatch(/^lineRegPct reading at 9 V in reads 9.5 V, outside its physical range −5 % of V_nom ≤ V_out ≤ V_in/);
   });
 
   it('reports protection flags as 1 / 0', async () => {
@@ -132,13 +140,17 @@ describe('limit keys', () => {
       kind: 'efficiency',
       params: { loadsA: [1.5, 3] },
       limits: [
-        { key: 'efficiencyPct@2', name: 'η', unit: '%', low: 85, rule: 'simple' },
+        { key: 'efficiencyPct@2', name: 'Efficiency', unit: '%', low: 85, rule: 'simple' },
         { key: 'rippleMvPp', name: 'ripple', unit: 'mV', high: 50, rule: 'simple' },
       ],
     };
     const problems = stepProblems(s);
-    expect(problems.some((p) => p.includes('names a load not in loadsA'))).toBe(true);
-    expect(problems.some((p) => p.includes('"rippleMvPp" is not a quantity of a efficiency step'))).toBe(true);
-    expect(stepProblems(step('ripple', { loadA: 3 })).join()).toMatch(/samples must be/);
+    // the same checks and words as a plan file (plan-steps-check.ts), prefixed with the step
+    expect(problems).toContain('step "Efficiency" (eff): limits[0].key: names 2 A, which is not in params.loadsA (1.5, 3)');
+    expect(problems.some((p) => p.includes('"rippleMvPp" is not a quantity of a step of kind efficiency'))).toBe(true);
+    expect(stepProblems(step('ripple', { loadA: 3 }, [{ key: 'rippleMvPp', name: 'ripple', unit: 'mV', high: 30, rule: 'simple' }]))).toEqual([
+      'step "ripple" (ripple): params.samples: is required for a step of kind ripple',
+      'step "ripple" (ripple): params.sampleRateHz: is required for a step of kind ripple',
+    ]);
   });
 });
