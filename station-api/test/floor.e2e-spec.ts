@@ -1,8 +1,8 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { FixtureLinkService } from '../src/fixtures/transport/fixture-link.service';
-import { code128Png } from '../src/floor/repair-tag.pdf';
-import { decodePng, pdfRgbImages, pdfText, readBarcode } from '../src/floor/pdf-inspect.spec-helper';
+import { FixtureSimulation } from '../src/simulation/fixture-simulation';
+import { code128Png } from '../src/repair/repair-tag.pdf';
+import { decodePng, pdfRgbImages, pdfText, readBarcode } from '../src/repair/pdf-inspect.spec-helper';
 import type { MeasurementView, StationEventMap, StationEventName } from '../src/realtime/station-events';
 import { StationEventsPublisher } from '../src/realtime/station-events.publisher';
 import { RunEngineService } from '../src/runs/run-engine.service';
@@ -69,7 +69,7 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
     ).map((u) => u.serial);
     [passSerial, failSerial] = serials;
     // the same way the engine tests choose a defect: per serial, everything else good
-    await t.app.get(FixtureLinkService).reconfigureSimulator('FX-101', { defectRates: {}, serials: { [failSerial]: 'wrong_feedback' } });
+    await t.app.get(FixtureSimulation).reconfigure('FX-101', { defectRates: {}, serials: { [failSerial]: 'wrong_feedback' } });
 
     const pass = await testUnit(stations['EOL-1'].id, passSerial);
     const fail = await testUnit(stations['EOL-1'].id, failSerial);
@@ -271,8 +271,7 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
   describe('while a run is going', () => {
     it('shows the run and its current step on the board, and refuses its repair tag with 409', async () => {
       const serial = serials[2];
-      const links = t.app.get(FixtureLinkService);
-      const handle = await links.reconfigureSimulator('FX-101', { defectRates: {} });
+      const handle = await t.app.get(FixtureSimulation).reconfigure('FX-101', { defectRates: {} });
       // hold the fixture's replies once step 2 has started, look at the board, then let the run go on
       // (released well inside the 2 s command timeout)
       let release!: () => void;

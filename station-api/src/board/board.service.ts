@@ -3,9 +3,9 @@ import { Injectable } from '@nestjs/common';
 import { RunEngineService } from '../runs/run-engine.service';
 import { RunVerdict, TestRun } from '../runs/test-run.entity';
 import { Station } from '../stations/station.entity';
-import type { BoardCurrentRunDto, BoardEntryDto, BoardLastRunDto } from './dto/floor.dto';
+import type { BoardCurrentRunDto, BoardEntryDto, BoardLastRunDto } from './dto/board.dto';
 import { RunProgressTracker } from './run-progress.tracker';
-import { ShiftSummaryService } from './shift-summary.service';
+import { ShiftSummaryService } from '../shift/shift-summary.service';
 
 /** How many finished runs each board tile lists. */
 export const BOARD_LAST_RUNS = 8;

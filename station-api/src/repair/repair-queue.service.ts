@@ -6,7 +6,7 @@ import { toMeasuredAgainstLimits } from '../runs/run-views';
 import { RunVerdict, TestRun } from '../runs/test-run.entity';
 import { Station } from '../stations/station.entity';
 import { Unit, UnitState } from '../units/unit.entity';
-import type { RepairFailureDto, RepairQueueDto, RepairQueueItemDto, RepairQueueQueryDto } from './dto/floor.dto';
+import type { RepairFailureDto, RepairQueueDto, RepairQueueItemDto, RepairQueueQueryDto } from './dto/repair-queue.dto';
 
 /**
  * Units waiting for repair: state `failed` (the engine sets it when a run fails) or `in_repair`, each with
