@@ -210,8 +210,12 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
   });
 
   describe('GET /api/repair-queue', () => {
-    it('holds the failed unit with its failing run and first failing measurement, not the passed one', async () => {
+    it('holds the failed unit once the operator sends it, with its failing run and first failing measurement, not the passed one', async () => {
       const detail = (await as('engineer', http().get(`/api/runs/${failRunId}`)).expect(200)).body;
+      // one failure with attempts left: not on the queue until the operator sends it (retest policy, issue 8)
+      const before = (await as('engineer', http().get('/api/repair-queue')).expect(200)).body;
+      expect(before.items.map((i: { serial: string }) => i.serial)).not.toContain(failSerial);
+      await as('operator', http().post(`/api/units/${failSerial}/send-to-repair`).send({})).expect(200);
       const q = (await as('engineer', http().get('/api/repair-queue')).expect(200)).body;
       expect(q.total).toBe(q.items.length);
       const serialsInQueue = q.items.map((i: { serial: string }) => i.serial);
@@ -221,6 +225,7 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
       const first = (detail.measurements as MeasurementView[]).find((m) => m.verdict !== 'pass')!;
       expect(item).toMatchObject({
         state: 'failed',
+        reason: 'sent_by_operator',
         testCount: 1,
         lot: { id: stations['EOL-1'].activeLotId, code: detail.lotCode, partNumber: 'OB-BK0503' },
         lastFailingRun: {

@@ -51,6 +51,13 @@ export class RepairQueueItemDto {
   @ApiProperty() unitId!: number;
   @ApiProperty() serial!: string;
   @ApiProperty({ enum: ['failed', 'in_repair'] }) state!: 'failed' | 'in_repair';
+  @ApiProperty({
+    enum: ['no_attempts_left', 'sent_by_operator', 'in_repair'],
+    description: 'why the unit is on the queue: a failed unit with attempts left is not (it may be re-seated and tested again)',
+  })
+  reason!: 'no_attempts_left' | 'sent_by_operator' | 'in_repair';
+  @ApiProperty({ type: String, nullable: true, description: 'when the operator sent it to repair (ISO 8601); null: not sent' })
+  sentToRepairAt!: string | null;
   @ApiProperty() testCount!: number;
   @ApiProperty({ type: BoardLotDto }) lot!: BoardLotDto;
   @ApiProperty({ type: RepairRunDto, nullable: true, description: 'null only if no failing run is stored for the unit' })
