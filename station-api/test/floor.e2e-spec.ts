@@ -6,6 +6,7 @@ import { decodePng, pdfRgbImages, pdfText, readBarcode } from '../src/repair/pdf
 import type { MeasurementView, StationEventMap, StationEventName } from '../src/realtime/station-events';
 import { StationEventsPublisher } from '../src/realtime/station-events.publisher';
 import { RunEngineService } from '../src/runs/run-engine.service';
+import { TestRun } from '../src/runs/test-run.entity';
 import { Station } from '../src/stations/station.entity';
 import { Unit, UnitState } from '../src/units/unit.entity';
 import { createTestApp, login, TestApp } from './create-test-app';
@@ -98,10 +99,9 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
       const start = Date.parse(s.shiftStart);
       expect(Date.parse(s.shiftEnd) - start).toBe(24 * 3_600_000);
       expect(start).toBeLessThan(before);
-      // 2 judged runs over about 12 h of shift so far
-      const hours = (before - start) / 3_600_000;
-      expect(s.unitsPerHour).toBeGreaterThan(2 / (hours + 0.01));
-      expect(s.unitsPerHour).toBeLessThan(2 / (hours - 0.01));
+      // the shift is hours old: units per hour = the 2 units finished in the last hour (not 2 ÷ hours)
+      expect(before - start).toBeGreaterThan(3_600_000);
+      expect(s.unitsPerHour).toBe(2);
     });
 
     it('gives zeros and nulls for a station that tested nothing', async () => {
@@ -149,6 +149,25 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
       for (const b of board) {
         const status = (await as('operator', http().get(`/api/stations/${b.station.id}/status`)).expect(200)).body;
         expect({ state: b.state, reasons: b.reasons }).toEqual({ state: status.state, reasons: status.reasons });
+      }
+    });
+
+    // issue 8 "board as a wall screen": "Last units" showed week-old results with no time
+    it("lists only this shift's finished runs, each with its finish time", async () => {
+      const em = t.orm.em.fork();
+      const pass = await em.findOneOrFail(TestRun, { id: passRunId });
+      const finishedAt = pass.finishedAt!;
+      const board = async () => ((await as('operator', http().get('/api/board')).expect(200)).body as Array<Record<string, any>>)[0];
+      const now = await board();
+      for (const r of now.lastRuns) expect(Date.parse(r.finishedAt)).toBeGreaterThanOrEqual(Date.parse(now.shift.shiftStart));
+      expect(now.lastRuns.find((r: { id: number }) => r.id === passRunId).finishedAt).toBe(finishedAt.toISOString());
+      // the same run as if it had finished a minute before this shift began: no longer on the board
+      const earlier = new Date(Date.parse(now.shift.shiftStart) - 60_000);
+      await em.nativeUpdate(TestRun, { id: passRunId }, { finishedAt: earlier, startedAt: new Date(earlier.getTime() - 5_000) });
+      try {
+        expect((await board()).lastRuns.map((r: { id: number }) => r.id)).toEqual([failRunId]);
+      } finally {
+        await em.nativeUpdate(TestRun, { id: passRunId }, { finishedAt, startedAt: pass.startedAt });
       }
     });
 

@@ -46,6 +46,7 @@ export class BoardEntryDto {
   @ApiProperty({ type: BoardFixtureDto, nullable: true }) fixture!: BoardFixtureDto | null;
   @ApiProperty({ type: BoardLotDto, nullable: true }) activeLot!: BoardLotDto | null;
   @ApiProperty({ type: BoardCurrentRunDto, nullable: true }) currentRun!: BoardCurrentRunDto | null;
-  @ApiProperty({ type: [BoardLastRunDto], description: 'the last 8 finished runs, newest first' }) lastRuns!: BoardLastRunDto[];
+  @ApiProperty({ type: [BoardLastRunDto], description: "the last 8 runs finished in the shift running now (see shift.shiftStart), newest first, each with finishedAt" })
+  lastRuns!: BoardLastRunDto[];
   @ApiProperty({ type: ShiftSummaryDto }) shift!: ShiftSummaryDto;
 }

@@ -17,6 +17,11 @@ export class ShiftSummaryDto {
     description: 'units whose first-ever test (attempt 1) passed ÷ units first tested here in this shift, in %; null when none',
   })
   firstPassYieldPct!: number | null;
-  @ApiProperty({ type: Number, nullable: true, description: 'pass/fail runs per hour of shift elapsed (at least 1 minute counted); null before the first' })
+  @ApiProperty({
+    type: Number,
+    nullable: true,
+    description:
+      'units (pass/fail runs) finished in the last 60 minutes once the shift is an hour old; in the first hour, units ÷ hours elapsed from 3 units on; otherwise null (show "—")',
+  })
   unitsPerHour!: number | null;
 }
