@@ -222,6 +222,15 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
       expect(bad.body.message).toBe('The run id in the address must be a whole number, e.g. 1.');
     });
 
+    it('lays the barcode out for a 203 or 300 dpi label printer and refuses any other resolution', async () => {
+      for (const dpi of [203, 300]) {
+        const res = await as('operator', http().get(`/api/runs/${failRunId}/repair-tag.pdf?dpi=${dpi}`)).buffer(true).parse(binary).expect(200);
+        expect(readBarcode(pdfRgbImages(res.body as Buffer)[0]).text).toBe(failSerial);
+      }
+      const bad = await as('operator', http().get(`/api/runs/${failRunId}/repair-tag.pdf?dpi=600`)).expect(400);
+      expect(JSON.stringify(bad.body)).toContain("dpi must be 203 or 300 (the label printer's resolution)");
+    });
+
     it('is open to operator, engineer, quality and admin, and to nobody signed out', async () => {
       for (const role of ROLES) await as(role, http().get(`/api/runs/${failRunId}/repair-tag.pdf`)).expect(200);
       await http().get(`/api/runs/${failRunId}/repair-tag.pdf`).expect(401);

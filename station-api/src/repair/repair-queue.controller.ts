@@ -12,6 +12,7 @@ import {
 } from '@nestjs/swagger';
 import { Roles } from '../common/decorators/roles.decorator';
 import { RepairQueueDto, RepairQueueQueryDto } from './dto/repair-queue.dto';
+import { RepairTagQueryDto } from './dto/repair-tag.dto';
 import { RepairQueueService } from './repair-queue.service';
 import { RepairTagService } from './repair-tag.service';
 
@@ -38,8 +39,9 @@ export class RepairQueueController {
   @ApiNotFoundResponse({ description: 'details.code run_not_found' })
   @ApiConflictResponse({ description: 'details.code run_passed, run_in_progress or run_not_judged' })
   @ApiUnprocessableEntityResponse({ description: 'details.code serial_not_printable' })
-  async repairTag(@Param('id', runIdParam) id: number): Promise<StreamableFile> {
-    const tag = await this.repairTags.forRun(id);
+  @ApiBadRequestResponse({ description: 'details.code bad_id, or validation (dpi)' })
+  async repairTag(@Param('id', runIdParam) id: number, @Query() query: RepairTagQueryDto): Promise<StreamableFile> {
+    const tag = await this.repairTags.forRun(id, query.dpi ?? 203);
     return new StreamableFile(tag.pdf, {
       type: 'application/pdf',
       disposition: `inline; filename="${tag.fileName}"`,
