@@ -93,7 +93,7 @@ describe('shiftAt', () => {
 
 describe('firstPassYieldPct', () => {
   it('matches the worked first-pass yield: 962 of 1000 pass first time → 96.2 %', () => {
-    // check-values §6.2 [X] (definition [C]: Stamatis, Six Sigma Fundamentals; blfilm.com / studyzin pages)
+    // self-constructed example; definition of first-pass yield: D. H. Stamatis, Six Sigma Fundamentals (from memory, unverified)
     rel(firstPassYieldPct(962, 1000), 96.2);
   });
 
@@ -155,7 +155,7 @@ describe('summarizeShift', () => {
   });
 
   it('reproduces the worked yield example: 1000 units, 962 first-time passes, 30 pass on retest, 8 fail again', () => {
-    // check-values §6.2 [X]: FPY = 0.962, final yield = 992/1000 = 0.992
+    // self-constructed example (arithmetic): FPY = 962/1000 = 0.962, final yield = 992/1000 = 0.992
     const runs: ShiftRun[] = [];
     for (let u = 1; u <= 1000; u++) {
       const t = at(2026, 12, 2, 7, 0, 0, u);

@@ -117,8 +117,8 @@ export const MIN_UNITS_FOR_EARLY_RATE = 3;
 
 /**
  * First-pass yield in percent: units that passed their first test ÷ units tested for the first time.
- * Follows the common definition "passed the first time, without rework or retest" (Stamatis, *Six Sigma
- * Fundamentals*, via check-values §6.1).
+ * Follows the common definition "passed the first time, without rework or retest" (D. H. Stamatis, *Six
+ * Sigma Fundamentals*, Productivity Press, 2004 — from memory, unverified).
  * @returns null when no unit had its first test (nothing to divide by)
  */
 export function firstPassYieldPct(firstPassed: number, firstTested: number): number | null {
