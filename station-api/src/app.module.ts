@@ -16,8 +16,10 @@ import { UnitsModule } from './units/units.module';
 import { UsersModule } from './users/users.module';
 import { RunsModule } from './runs/runs.module';
 import { PlansModule } from './plans/plans.module';
-import { FloorModule } from './floor/floor.module';
+import { BoardModule } from './board/board.module';
 import { RepairModule } from './repair/repair.module';
+import { ShiftModule } from './shift/shift.module';
+import { SimulationModule } from './simulation/simulation.module';
 
 function staticUi(): DynamicModule[] {
   const dist = loadEnv().UI_DIST;
@@ -35,9 +37,11 @@ function staticUi(): DynamicModule[] {
         createOrmConfig(config.get('DATABASE_PATH', { infer: true })),
     }),
     AuditModule, AuthModule, UsersModule, ProductsModule, FixturesModule, LotsModule, StationsModule, UnitsModule,
+    SimulationModule,
     RunsModule,
     PlansModule,
-    FloorModule,
+    ShiftModule,
+    BoardModule,
     RepairModule,
     ...staticUi(),
   ],

@@ -2,7 +2,8 @@ import type { SimulatorConfig } from '@railwright/mock-fixture';
 import request from 'supertest';
 import { Fixture } from '../src/fixtures/fixture.entity';
 import { FixtureLinkService } from '../src/fixtures/transport/fixture-link.service';
-import type { SimulatorHandle } from '../src/fixtures/transport/simulated-fixtures';
+import { FixtureSimulation } from '../src/simulation/fixture-simulation';
+import type { SimulatorHandle } from '../src/simulation/simulated-fixtures';
 import type { RunFinishedPayload, StationEventMap, StationEventName } from '../src/realtime/station-events';
 import { StationEventsPublisher } from '../src/realtime/station-events.publisher';
 import { RunEngineService } from '../src/runs/run-engine.service';
@@ -33,6 +34,10 @@ export class EngineHarness {
     return this.t.app.get(FixtureLinkService);
   }
 
+  get simulation(): FixtureSimulation {
+    return this.t.app.get(FixtureSimulation);
+  }
+
   http() {
     return request(this.t.app.getHttpServer());
   }
@@ -53,7 +58,7 @@ export class EngineHarness {
 
   /** Gives the station's simulated fixture a defect configuration (closes the link so it takes effect). */
   async simulate(fixtureCode: string, config: SimulatorConfig, timing: 'instant' | 'realistic' = 'instant'): Promise<SimulatorHandle> {
-    return this.links.reconfigureSimulator(fixtureCode, config, timing);
+    return this.simulation.reconfigure(fixtureCode, config, timing);
   }
 
   /** Changes a fixture's settings in the database and rebuilds its link (a fresh simulator with default defects). */

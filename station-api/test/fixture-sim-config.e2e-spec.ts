@@ -11,7 +11,7 @@ import { EngineHarness } from './engine-helpers';
  * FIXTURE_SIM_CONFIG: the simulated fixtures of a running server take their defects from a file. The
  * file is read when the server starts, before the demo plant is seeded, so the serials are worked out the
  * way the seeder makes them: EOL-1's active lot of OB-BK0503 is this week's first, sequences from 00001.
- * (A bad file stopping the start is covered by src/config/fixture-sim.config.spec.ts.)
+ * (A bad file stopping the start is covered by src/simulation/simulator-config-file.spec.ts.)
  */
 describe('simulated fixtures configured from FIXTURE_SIM_CONFIG', () => {
   const dir = mkdtempSync(join(tmpdir(), 'railwright-simcfg-e2e-'));

@@ -1,11 +1,12 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { FixtureLinkService } from '../src/fixtures/transport/fixture-link.service';
-import { code128Png } from '../src/floor/repair-tag.pdf';
-import { decodePng, pdfRgbImages, pdfText, readBarcode } from '../src/floor/pdf-inspect.spec-helper';
+import { FixtureSimulation } from '../src/simulation/fixture-simulation';
+import { code128Png } from '../src/repair/repair-tag.pdf';
+import { decodePng, pdfRgbImages, pdfText, readBarcode } from '../src/repair/pdf-inspect.spec-helper';
 import type { MeasurementView, StationEventMap, StationEventName } from '../src/realtime/station-events';
 import { StationEventsPublisher } from '../src/realtime/station-events.publisher';
 import { RunEngineService } from '../src/runs/run-engine.service';
+import { TestRun } from '../src/runs/test-run.entity';
 import { Station } from '../src/stations/station.entity';
 import { Unit, UnitState } from '../src/units/unit.entity';
 import { createTestApp, login, TestApp } from './create-test-app';
@@ -69,7 +70,7 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
     ).map((u) => u.serial);
     [passSerial, failSerial] = serials;
     // the same way the engine tests choose a defect: per serial, everything else good
-    await t.app.get(FixtureLinkService).reconfigureSimulator('FX-101', { defectRates: {}, serials: { [failSerial]: 'wrong_feedback' } });
+    await t.app.get(FixtureSimulation).reconfigure('FX-101', { defectRates: {}, serials: { [failSerial]: 'wrong_feedback' } });
 
     const pass = await testUnit(stations['EOL-1'].id, passSerial);
     const fail = await testUnit(stations['EOL-1'].id, failSerial);
@@ -98,10 +99,9 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
       const start = Date.parse(s.shiftStart);
       expect(Date.parse(s.shiftEnd) - start).toBe(24 * 3_600_000);
       expect(start).toBeLessThan(before);
-      // 2 judged runs over about 12 h of shift so far
-      const hours = (before - start) / 3_600_000;
-      expect(s.unitsPerHour).toBeGreaterThan(2 / (hours + 0.01));
-      expect(s.unitsPerHour).toBeLessThan(2 / (hours - 0.01));
+      // the shift is hours old: units per hour = the 2 units finished in the last hour (not 2 ÷ hours)
+      expect(before - start).toBeGreaterThan(3_600_000);
+      expect(s.unitsPerHour).toBe(2);
     });
 
     it('gives zeros and nulls for a station that tested nothing', async () => {
@@ -149,6 +149,25 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
       for (const b of board) {
         const status = (await as('operator', http().get(`/api/stations/${b.station.id}/status`)).expect(200)).body;
         expect({ state: b.state, reasons: b.reasons }).toEqual({ state: status.state, reasons: status.reasons });
+      }
+    });
+
+    // issue 8 "board as a wall screen": "Last units" showed week-old results with no time
+    it("lists only this shift's finished runs, each with its finish time", async () => {
+      const em = t.orm.em.fork();
+      const pass = await em.findOneOrFail(TestRun, { id: passRunId });
+      const finishedAt = pass.finishedAt!;
+      const board = async () => ((await as('operator', http().get('/api/board')).expect(200)).body as Array<Record<string, any>>)[0];
+      const now = await board();
+      for (const r of now.lastRuns) expect(Date.parse(r.finishedAt)).toBeGreaterThanOrEqual(Date.parse(now.shift.shiftStart));
+      expect(now.lastRuns.find((r: { id: number }) => r.id === passRunId).finishedAt).toBe(finishedAt.toISOString());
+      // the same run as if it had finished a minute before this shift began: no longer on the board
+      const earlier = new Date(Date.parse(now.shift.shiftStart) - 60_000);
+      await em.nativeUpdate(TestRun, { id: passRunId }, { finishedAt: earlier, startedAt: new Date(earlier.getTime() - 5_000) });
+      try {
+        expect((await board()).lastRuns.map((r: { id: number }) => r.id)).toEqual([failRunId]);
+      } finally {
+        await em.nativeUpdate(TestRun, { id: passRunId }, { finishedAt, startedAt: pass.startedAt });
       }
     });
 
@@ -203,6 +222,15 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
       expect(bad.body.message).toBe('The run id in the address must be a whole number, e.g. 1.');
     });
 
+    it('lays the barcode out for a 203 or 300 dpi label printer and refuses any other resolution', async () => {
+      for (const dpi of [203, 300]) {
+        const res = await as('operator', http().get(`/api/runs/${failRunId}/repair-tag.pdf?dpi=${dpi}`)).buffer(true).parse(binary).expect(200);
+        expect(readBarcode(pdfRgbImages(res.body as Buffer)[0]).text).toBe(failSerial);
+      }
+      const bad = await as('operator', http().get(`/api/runs/${failRunId}/repair-tag.pdf?dpi=600`)).expect(400);
+      expect(JSON.stringify(bad.body)).toContain("dpi must be 203 or 300 (the label printer's resolution)");
+    });
+
     it('is open to operator, engineer, quality and admin, and to nobody signed out', async () => {
       for (const role of ROLES) await as(role, http().get(`/api/runs/${failRunId}/repair-tag.pdf`)).expect(200);
       await http().get(`/api/runs/${failRunId}/repair-tag.pdf`).expect(401);
@@ -210,8 +238,12 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
   });
 
   describe('GET /api/repair-queue', () => {
-    it('holds the failed unit with its failing run and first failing measurement, not the passed one', async () => {
+    it('holds the failed unit once the operator sends it, with its failing run and first failing measurement, not the passed one', async () => {
       const detail = (await as('engineer', http().get(`/api/runs/${failRunId}`)).expect(200)).body;
+      // one failure with attempts left: not on the queue until the operator sends it (retest policy, issue 8)
+      const before = (await as('engineer', http().get('/api/repair-queue')).expect(200)).body;
+      expect(before.items.map((i: { serial: string }) => i.serial)).not.toContain(failSerial);
+      await as('operator', http().post(`/api/units/${failSerial}/send-to-repair`).send({})).expect(200);
       const q = (await as('engineer', http().get('/api/repair-queue')).expect(200)).body;
       expect(q.total).toBe(q.items.length);
       const serialsInQueue = q.items.map((i: { serial: string }) => i.serial);
@@ -221,6 +253,7 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
       const first = (detail.measurements as MeasurementView[]).find((m) => m.verdict !== 'pass')!;
       expect(item).toMatchObject({
         state: 'failed',
+        reason: 'sent_by_operator',
         testCount: 1,
         lot: { id: stations['EOL-1'].activeLotId, code: detail.lotCode, partNumber: 'OB-BK0503' },
         lastFailingRun: {
@@ -271,8 +304,7 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
   describe('while a run is going', () => {
     it('shows the run and its current step on the board, and refuses its repair tag with 409', async () => {
       const serial = serials[2];
-      const links = t.app.get(FixtureLinkService);
-      const handle = await links.reconfigureSimulator('FX-101', { defectRates: {} });
+      const handle = await t.app.get(FixtureSimulation).reconfigure('FX-101', { defectRates: {} });
       // hold the fixture's replies once step 2 has started, look at the board, then let the run go on
       // (released well inside the 2 s command timeout)
       let release!: () => void;

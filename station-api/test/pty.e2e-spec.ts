@@ -71,10 +71,54 @@ describe('fixture over a real pseudo-terminal', () => {
     if (dir) rmSync(dir, { recursive: true, force: true });
   });
 
+  // issue 8 defect 2: a server killed mid-run left the pty fixture at 12 V / 3 A; the next server must
+  // switch it off and read it back off before anything else
+  it('switches off and reads back off a fixture that a killed server left on, at start-up and on reconnect', async () => {
+    const s = await h.station('EOL-1');
+    const link = h.links.linkFor(s.fixture!);
+    const leaveOn = async () => {
+      await link.transport.close();
+      // a second "server" opens the port, powers the unit, confirms it by query, and is killed with SIGKILL
+      const script = join(dir, 'leave-on.cjs');
+      writeFileSync(
+        script,
+        `const { SerialPort, ReadlineParser } = require(${JSON.stringify(require.resolve('serialport'))});
+const port = new SerialPort({ path: ${JSON.stringify(appSide)}, baudRate: 115200 });
+const lines = port.pipe(new ReadlineParser({ delimiter: '\\n' }));
+const replies = [];
+lines.on('data', (l) => { replies.push(l.trim()); if (replies.length === 2) console.log('powered ' + replies.join(',')); });
+port.on('open', () => port.write('SOUR:VOLT 12\\nOUTP ON\\nLOAD:CURR 3\\nLOAD ON\\nOUTP?\\nLOAD?\\n'));
+setInterval(() => undefined, 1000);`,
+      );
+      const killed = spawn(process.execPath, [script], { stdio: ['ignore', 'pipe', 'inherit'] });
+      let out = '';
+      killed.stdout!.on('data', (c: Buffer) => (out += c.toString()));
+      await waitFor(() => out.includes('powered'), 'the other process to power the fixture');
+      expect(out.trim()).toBe('powered 1,1');
+      killed.kill('SIGKILL');
+      await new Promise((r) => killed.once('exit', r));
+    };
+
+    // start-up: the server prepares every fixture (RunEngineService.onApplicationBootstrap → links.prepare)
+    await leaveOn();
+    await h.links.prepare([s.fixture!]);
+    expect(h.links.faultOf(s.fixture!.id)).toBeUndefined();
+    expect(await link.scpi.query('OUTP?')).toBe('0');
+    expect(await link.scpi.query('LOAD?')).toBe('0');
+
+    // reconnect: the first command on a fresh connection is preceded by the safe state and its read-back
+    await leaveOn();
+    const id = await link.scpi.identify();
+    expect(id.fixtureId).toBe('FX-101');
+    expect(await link.scpi.query('OUTP?')).toBe('0');
+    expect(await link.scpi.query('LOAD?')).toBe('0');
+    expect(h.links.faultOf(s.fixture!.id)).toBeUndefined();
+  });
+
   it('identifies the fixture over the pty with the real binding', async () => {
     const s = await h.station('EOL-1');
     const link = h.links.linkFor(s.fixture!);
-    expect(link.isSimulated).toBe(false);
+    expect(link.isProvided).toBe(false);
     const id = await link.scpi.identify();
     expect(id).toMatchObject({ maker: 'RAILWRIGHT', model: 'SIM-FIXTURE', fixtureId: 'FX-101' });
   });

@@ -51,7 +51,7 @@ describe('repair: POST /api/units/:serial/repair', () => {
 
   it('lists the failed unit in the repair queue as waiting (state failed)', async () => {
     const q = (await h.http().get('/api/repair-queue').set(auth('engineer')).expect(200)).body;
-    expect(q.items.find((i: { serial: string }) => i.serial === badSerial)).toMatchObject({ state: 'failed', testCount: maxAttempts });
+    expect(q.items.find((i: { serial: string }) => i.serial === badSerial)).toMatchObject({ state: 'failed', reason: 'no_attempts_left', testCount: maxAttempts });
   });
 
   it('refuses the operator role with 403 and changes nothing', async () => {
@@ -167,3 +167,79 @@ describe('repair: POST /api/units/:serial/repair', () => {
     expect(await em.count(AuditEvent, { action: { $like: 'unit.%' } })).toBe(3);
   });
 });
+
+/**
+ * Retest policy (issue 8; interfaces decision 9): after a FAIL with attempts left the unit stays `failed`
+ * and off the repair queue; it goes there when no attempts are left or when the operator sends it.
+ */
+describe('retest policy: POST /api/units/:serial/send-to-repair', () => {
+  let t: TestApp;
+  let h: EngineHarness;
+  const tokens: Record<string, string> = {};
+  let eol1: number;
+  let failedOnce: string;
+  let passed: string;
+  const auth = (role: string) => ({ Authorization: `Bearer ${tokens[role]}` });
+  const send = (serial: string, body: Record<string, unknown> = {}, role = 'operator') =>
+    h.http().post(`/api/units/${encodeURIComponent(serial)}/send-to-repair`).set(auth(role)).send(body);
+  const queue = async () => (await h.http().get('/api/repair-queue').set(auth('engineer')).expect(200)).body.items as { serial: string; reason: string; sentToRepairAt: string | null }[];
+
+  beforeAll(async () => {
+    t = await createTestApp();
+    for (const role of ['operator', 'engineer', 'quality', 'admin']) tokens[role] = await login(t.app, role);
+    h = new EngineHarness(t, tokens.operator);
+    eol1 = (await h.station('EOL-1')).id;
+    [failedOnce, passed] = await h.freshSerials('EOL-1', 2);
+    await h.simulate('FX-101', { defectRates: {}, serials: { [failedOnce]: 'wrong_feedback' } });
+    expect((await h.run(eol1, failedOnce)).verdict).toBe('fail');
+    expect((await h.run(eol1, passed)).verdict).toBe('pass');
+  });
+  afterAll(async () => t?.close());
+
+  it('keeps a unit that failed with attempts left off the repair queue', async () => {
+    expect((await unitOf(t, failedOnce)).state).toBe('failed');
+    expect((await queue()).map((i) => i.serial)).not.toContain(failedOnce);
+  });
+
+  it('refuses roles other than operator, engineer and admin, a note that is too long, and units that did not fail', async () => {
+    await send(failedOnce, {}, 'quality').expect(403);
+    await h.http().post(`/api/units/${failedOnce}/send-to-repair`).send({}).expect(401);
+    const long = await send(failedOnce, { note: 'x'.repeat(501) }).expect(400);
+    expect(JSON.stringify(long.body)).toMatch(/note must be at most 500 characters/);
+    const notFailed = await send(passed).expect(409);
+    expect(notFailed.body.details).toMatchObject({ code: 'not_failed', state: 'passed' });
+    expect(notFailed.body.message).toBe(`${passed} cannot be sent to repair: it passed its test. Only a failed unit goes to repair.`);
+    const unknown = await send('K5A-0000-99999').expect(404);
+    expect(unknown.body.details.code).toBe('unknown_serial');
+    expect((await unitOf(t, failedOnce)).sentToRepairAt ?? null).toBeNull();
+  });
+
+  it('sends it to repair (200 with the unit), lists it as sent by the operator, and audits it with the note', async () => {
+    const res = await send(failedOnce, { note: '  Output high again after re-seating  ' }).expect(200);
+    expect(res.body).toMatchObject({ serial: failedOnce, state: 'failed', testCount: 1 });
+    expect(Date.parse(res.body.sentToRepairAt)).toBeGreaterThan(Date.now() - 60_000);
+    const item = (await queue()).find((i) => i.serial === failedOnce);
+    expect(item).toMatchObject({ reason: 'sent_by_operator', sentToRepairAt: res.body.sentToRepairAt });
+    // a second send (double click) changes nothing and writes nothing
+    const again = await send(failedOnce, {}, 'engineer').expect(200);
+    expect(again.body.sentToRepairAt).toBe(res.body.sentToRepairAt);
+    const unit = await unitOf(t, failedOnce);
+    const events = await t.orm.em.fork().find(AuditEvent, { entityType: 'unit', entityId: String(unit.id) }, { populate: ['actor'] });
+    expect(events.map((e) => [e.action, e.reason, e.actor?.username, e.after?.sentToRepairAt])).toEqual([
+      ['unit.sent_to_repair', 'Output high again after re-seating', 'operator', res.body.sentToRepairAt],
+    ]);
+  });
+
+  it('clears the mark when repair returns the unit for retest', async () => {
+    const repair = (action: string, note: string) => h.http().post(`/api/units/${failedOnce}/repair`).set(auth('engineer')).send({ action, note });
+    await repair('receive', 'on the bench').expect(200);
+    expect((await queue()).find((i) => i.serial === failedOnce)?.reason).toBe('in_repair');
+    const back = await repair('return', 'replaced the feedback divider').expect(200);
+    expect(back.body.unit).toMatchObject({ state: 'untested', sentToRepairAt: null });
+    expect((await queue()).map((i) => i.serial)).not.toContain(failedOnce);
+  });
+});
+
+function unitOf(t: TestApp, serial: string): Promise<Unit> {
+  return t.orm.em.fork().findOneOrFail(Unit, { serial });
+}

@@ -105,6 +105,11 @@ describe.skipIf(!hasSocat)('standalone fixture over a real pseudo-terminal pair 
       const vout = Number(await client.query('MEAS:VOLT:OUT?'));
       expect(Math.abs(vout / 5 - 1)).toBeLessThan(0.02);
       expect(fixture.simulator.state().sourceOn).toBe(true);
+      // the safe-state read-back over the pty (docs/fixture-protocol.md): the truth, both ways
+      for (const line of ['LOAD:CURR 3', 'LOAD ON']) await client.write(line);
+      expect([await client.query('OUTP?'), await client.query('LOAD?')]).toEqual(['1', '1']);
+      for (const line of ['LOAD OFF', 'OUTP OFF']) await client.write(line);
+      expect([await client.query('OUTP?'), await client.query('LOAD?')]).toEqual(['0', '0']);
     } finally {
       if (port) await closePort(port);
       if (fixture) await fixture.close();

@@ -57,6 +57,26 @@ describe('identification and housekeeping', () => {
     expect(await f.errors()).toEqual([]);
   });
 
+  // the station confirms its safe state by these two queries (docs/fixture-protocol.md, "Safe state"):
+  // they must report what the fixture really does, not what was last asked
+  it('answers OUTP? and LOAD? with the source and load state it is really in', async () => {
+    const f = fixture();
+    expect([await f.send('OUTP?'), await f.send('LOAD?')]).toEqual(['0', '0']);
+    await powerUp(f);
+    await f.send('LOAD:CURR 3');
+    await f.send('LOAD ON');
+    expect([await f.send('OUTP?'), await f.send('LOAD?')]).toEqual(['1', '1']);
+    await f.send('LOAD OFF');
+    expect([await f.send('OUTP?'), await f.send('LOAD?')]).toEqual(['1', '0']);
+    await f.send('OUTP OFF');
+    expect([await f.send('OUTP?'), await f.send('LOAD?')]).toEqual(['0', '0']);
+    await powerUp(f);
+    await f.send('LOAD ON');
+    await f.send('*RST');
+    expect([await f.send('OUTP?'), await f.send('LOAD?')]).toEqual(['0', '0']);
+    expect(f.sim.state()).toMatchObject({ sourceOn: false, loadOn: false });
+  });
+
   it('resets source, load and capture on *RST but keeps the error queue until *CLS', async () => {
     const f = fixture();
     await powerUp(f);

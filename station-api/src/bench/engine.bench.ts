@@ -52,7 +52,7 @@ async function main(): Promise<void> {
   const { registerLot } = await import('../lots/lot-registration');
   const { Station } = await import('../stations/station.entity');
   const { User } = await import('../users/user.entity');
-  const { createStandaloneEngine } = await import('./../runs/standalone-engine');
+  const { createSimulatedEngine } = await import('../simulation/simulated-engine');
 
   const orm = await MikroORM.init(createOrmConfig(dbPath));
   try {
@@ -70,10 +70,10 @@ async function main(): Promise<void> {
     await em.flush();
     const operator = await em.findOneOrFail(User, { username: 'operator' });
 
-    const { engine, links, events, close } = createStandaloneEngine(orm.em.fork());
+    const { engine, links, events, close, simulation } = createSimulatedEngine(orm.em.fork());
     links.linkFor(station.fixture!);
     const simConfig = { defectRates: {} };
-    const handle = await links.reconfigureSimulator(station.fixture!.code, simConfig);
+    const handle = await simulation.reconfigure(station.fixture!.code, simConfig);
     const kinds = new Map<string, string>();
     const samples: StepSample[] = [];
     // every line the fixture received, tagged with the step sample it belongs to (-1: between steps)

@@ -2,7 +2,8 @@ import { Body, Controller, HttpCode, Param, Post } from '@nestjs/common';
 import { ApiBadRequestResponse, ApiBearerAuth, ApiConflictResponse, ApiNotFoundResponse, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { AuthUser, CurrentUser } from '../common/decorators/current-user.decorator';
 import { Roles } from '../common/decorators/roles.decorator';
-import { RepairActionDto, RepairResultDto } from './dto/repair.dto';
+import { UnitDto } from '../units/dto/unit.dto';
+import { RepairActionDto, RepairResultDto, SendToRepairDto } from './dto/repair.dto';
 import { RepairService } from './repair.service';
 
 @ApiTags('repair')
@@ -24,5 +25,20 @@ export class RepairController {
   @ApiConflictResponse({ description: 'details.code bad_repair_transition (with state and allowed actions) or unit_under_test' })
   act(@Param('serial') serial: string, @Body() dto: RepairActionDto, @CurrentUser() user: AuthUser): Promise<RepairResultDto> {
     return this.repair.act(serial, dto, user.id);
+  }
+
+  @Post(':serial/send-to-repair')
+  @HttpCode(200)
+  @Roles('operator', 'engineer', 'admin')
+  @ApiOperation({
+    summary:
+      'Send a failed unit to repair although it has attempts left (the retest policy keeps it off the repair queue otherwise). Audited with the note; sending it again changes nothing.',
+  })
+  @ApiOkResponse({ type: UnitDto })
+  @ApiBadRequestResponse({ description: 'validation: details lists the fields (note)' })
+  @ApiNotFoundResponse({ description: 'details.code unknown_serial' })
+  @ApiConflictResponse({ description: 'details.code not_failed (with state) or unit_under_test' })
+  sendToRepair(@Param('serial') serial: string, @Body() dto: SendToRepairDto, @CurrentUser() user: AuthUser): Promise<UnitDto> {
+    return this.repair.sendToRepair(serial, dto, user.id);
   }
 }

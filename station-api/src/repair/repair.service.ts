@@ -5,7 +5,8 @@ import { RunEngineService } from '../runs/run-engine.service';
 import { RunVerdict, TestRun } from '../runs/test-run.entity';
 import { Unit, UnitState } from '../units/unit.entity';
 import { toUnitDto } from '../units/units.service';
-import type { RepairActionDto, RepairResultDto } from './dto/repair.dto';
+import type { UnitDto } from '../units/dto/unit.dto';
+import type { RepairActionDto, RepairResultDto, SendToRepairDto } from './dto/repair.dto';
 import { REPAIR_AUDIT_ACTIONS, repairTransition, type UnitStateName } from './repair-transitions';
 
 // same bound as the units route: longer input is a scan error
@@ -25,13 +26,7 @@ export class RepairService {
   ) {}
 
   async act(rawSerial: string, dto: RepairActionDto, actorId: number): Promise<RepairResultDto> {
-    const serial = rawSerial.trim();
-    if (serial.length === 0 || serial.length > MAX_SERIAL_LENGTH) {
-      throw new BadRequestException({
-        message: `A serial has 1 to ${MAX_SERIAL_LENGTH} characters; got ${serial.length}.`,
-        details: [{ field: 'serial', problems: [`serial must have 1 to ${MAX_SERIAL_LENGTH} characters`] }],
-      });
-    }
+    const serial = checkedSerial(rawSerial);
     // one transaction: read, check and write the state with its audit event, so two technicians acting at
     // once cannot both move the unit from the same state (SQLite serialises the transactions)
     return this.em.fork().transactional(async (em) => {
@@ -49,7 +44,10 @@ export class RepairService {
       const before = snapshot(unit);
       unit.state = t.to as UnitState;
       // a returned unit starts a fresh set of attempts; run attempt numbers stay global
-      if (dto.action === 'return') unit.testCountAtReturn = unit.testCount;
+      if (dto.action === 'return') {
+        unit.testCountAtReturn = unit.testCount;
+        unit.sentToRepairAt = undefined;
+      }
       const event = await this.audit.record(
         {
           actor: actorId,
@@ -67,6 +65,51 @@ export class RepairService {
     });
   }
 
+  /**
+   * The operator sends a failed unit to repair although it has attempts left (retest policy, issue 8): it
+   * goes on the repair queue and its station no longer offers a retest. Audited with the note. Sending a
+   * unit that was already sent changes nothing (a double click is not an error).
+   */
+  async sendToRepair(rawSerial: string, dto: SendToRepairDto, actorId: number): Promise<UnitDto> {
+    const serial = checkedSerial(rawSerial);
+    return this.em.fork().transactional(async (em) => {
+      const unit = await em.findOne(Unit, { serial }, { populate: ['lot', 'product'] });
+      if (!unit) {
+        throw new NotFoundException({ message: `No unit with serial "${serial}" is registered. Check the label.`, details: { code: 'unknown_serial' } });
+      }
+      if (unit.state !== UnitState.Failed) {
+        const why: Record<string, string> = {
+          untested: 'it has not been tested yet',
+          passed: 'it passed its test',
+          in_repair: 'it is already in repair',
+          scrapped: 'it was scrapped',
+        };
+        throw new ConflictException({
+          message: `${serial} cannot be sent to repair: ${why[unit.state] ?? `it is ${unit.state}`}. Only a failed unit goes to repair.`,
+          details: { code: 'not_failed', state: unit.state },
+        });
+      }
+      await this.refuseIfUnderTest(em, unit);
+      if (unit.sentToRepairAt) return toUnitDto(unit);
+      const before = snapshot(unit);
+      unit.sentToRepairAt = new Date();
+      await this.audit.record(
+        {
+          actor: actorId,
+          action: 'unit.sent_to_repair',
+          entityType: 'unit',
+          entityId: unit.id,
+          reason: dto.note || undefined,
+          before,
+          after: snapshot(unit),
+        },
+        em,
+      );
+      await em.flush();
+      return toUnitDto(unit);
+    });
+  }
+
   /** A unit on a fixture right now keeps its state until the run ends (the run would overwrite it). */
   private async refuseIfUnderTest(em: EntityManager, unit: Unit): Promise<void> {
     const running = await em.find(TestRun, { unit: unit.id, verdict: RunVerdict.Running }, { populate: ['station'] });
@@ -81,6 +124,17 @@ export class RepairService {
   }
 }
 
-function snapshot(u: Unit): { serial: string; state: string; testCount: number; testCountAtReturn: number } {
-  return { serial: u.serial, state: u.state, testCount: u.testCount, testCountAtReturn: u.testCountAtReturn };
+function checkedSerial(raw: string): string {
+  const serial = raw.trim();
+  if (serial.length === 0 || serial.length > MAX_SERIAL_LENGTH) {
+    throw new BadRequestException({
+      message: `A serial has 1 to ${MAX_SERIAL_LENGTH} characters; got ${serial.length}.`,
+      details: [{ field: 'serial', problems: [`serial must have 1 to ${MAX_SERIAL_LENGTH} characters`] }],
+    });
+  }
+  return serial;
+}
+
+function snapshot(u: Unit): { serial: string; state: string; testCount: number; testCountAtReturn: number; sentToRepairAt: string | null } {
+  return { serial: u.serial, state: u.state, testCount: u.testCount, testCountAtReturn: u.testCountAtReturn, sentToRepairAt: u.sentToRepairAt?.toISOString() ?? null };
 }

@@ -36,7 +36,7 @@ function harness() {
     checkErrors: async () => undefined,
     safeState: async () => ({ loadOff: true, sourceOff: true }),
   };
-  const link = { scpi, transport: { generation: 1 }, config: { code: 'FX-1' }, instant: true } as unknown as FixtureLink;
+  const link = { scpi, transport: { generation: 1 }, config: { code: 'FX-1' }, settle: async () => undefined } as unknown as FixtureLink;
   return { executor: new RunExecutor(events, store, records, new ActiveRuns()), emitted, stored, close, link };
 }
 

@@ -86,7 +86,7 @@ export class RunExecutor {
         scpi,
         product: ctx.product,
         fixture: { sourceOn: false, loadOn: false },
-        settle: (ms: number) => (link.instant ? (clock.elapse(ms), Promise.resolve()) : clock.sleep(ms)),
+        settle: (ms: number) => link.settle(ms, clock),
       };
       for (let i = 0; i < ctx.steps.length; i++) {
         const step = ctx.steps[i];

@@ -15,23 +15,12 @@ export interface StandaloneEngine {
 }
 
 /**
- * The real run engine without Nest: its collaborators built by hand on a given EntityManager. Used by the
- * history seeder (which runs inside MikroORM's seeder, outside any Nest context) and by the benchmark.
- * Simulated fixtures run with instant timing and a short command timeout: a reply they drop (intermittent
- * contact) is then noticed in milliseconds instead of the fixture's 2 s.
+ * The real run engine without Nest: its collaborators built by hand on a given EntityManager, talking to
+ * the fixtures through the given links (which transports serve which port paths is the caller's choice;
+ * the simulation module's `createSimulatedEngine` gives simulated fixtures). Used by the history seeder
+ * (which runs inside MikroORM's seeder, outside any Nest context) and by the benchmark.
  */
-export function createStandaloneEngine(
-  em: CoreEntityManager,
-  options: { commandTimeoutMs?: number; simNamespace?: string; simulatorInProcess?: boolean } = {},
-): StandaloneEngine {
-  const links = new FixtureLinkService({
-    simTiming: 'instant',
-    commandTimeoutMs: options.commandTimeoutMs ?? 100,
-    lateReplyGraceMs: 10,
-    // its own simulated fixtures, even if a server in the same process has attached some
-    simNamespace: options.simNamespace ?? 'standalone',
-    simulatorInProcess: options.simulatorInProcess,
-  });
+export function createStandaloneEngine(em: CoreEntityManager, links: FixtureLinkService): StandaloneEngine {
   const events = new StationEventsPublisher();
   const sqlEm = em as EntityManager;
   const plans = new PlansService(sqlEm, new AuditService(sqlEm));

@@ -41,4 +41,11 @@ export class Unit extends BaseEntity {
    */
   @Property()
   testCountAtReturn: number = 0;
+
+  /**
+   * When the operator sent the failed unit to repair with attempts still left (null: not sent). Cleared when
+   * repair returns it for retest. A unit with no attempts left is on the queue without it.
+   */
+  @Property({ nullable: true })
+  sentToRepairAt?: Date;
 }

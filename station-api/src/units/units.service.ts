@@ -14,6 +14,7 @@ export function toUnitDto(u: Unit): UnitDto {
     state: u.state,
     testCount: u.testCount,
     lastTestedAt: u.lastTestedAt?.toISOString() ?? null,
+    sentToRepairAt: u.sentToRepairAt?.toISOString() ?? null,
     lot: { id: u.lot.id, code: u.lot.code, state: u.lot.state },
     product: toProductDto(u.product),
   };

@@ -5,7 +5,7 @@ import { loadEnv } from '../../config/env.validation';
 import { Lot, LotState } from '../../lots/lot.entity';
 import { VirtualClock } from '../../runs/engine-clock';
 import type { RunEngineService, RunOutcome, RunRequester } from '../../runs/run-engine.service';
-import { createStandaloneEngine } from '../../runs/standalone-engine';
+import { createSimulatedEngine, type SimulatedEngine } from '../../simulation/simulated-engine';
 import { RunVerdict, TestRun } from '../../runs/test-run.entity';
 import { Station } from '../../stations/station.entity';
 import { Unit } from '../../units/unit.entity';
@@ -69,7 +69,7 @@ export class HistorySeeder extends Seeder {
     const conn = em.getConnection();
     const before = ((await conn.execute('PRAGMA synchronous')) as { synchronous: number }[])[0]?.synchronous ?? 2;
     await conn.execute('PRAGMA synchronous = NORMAL');
-    const standalone = createStandaloneEngine(em, { simNamespace: 'history', simulatorInProcess: true });
+    const standalone = createSimulatedEngine(em, { namespace: 'history', inProcess: true });
     const requester: RunRequester = { id: operator.id, roles: [...operator.roles], displayName: operator.displayName };
     const original = stations.map((s) => ({ id: s.id, activeLot: s.activeLot?.id ?? null }));
     const lotStates = history.map((l) => ({ id: l.id, state: l.state }));
@@ -89,7 +89,7 @@ export class HistorySeeder extends Seeder {
         const secondary = stations[(stations.indexOf(primary) + 1) % stations.length];
         const earliest = Math.max(lot.createdAt.getTime() + DAY_MS, now - HISTORY_DAYS * DAY_MS + i * LOT_SPACING_DAYS * DAY_MS);
         const windowStart = atShiftStart(new Date(earliest));
-        runs += await this.testLot(em, standalone.engine, standalone.links, { lot, primary, secondary, requester, config, windowStart });
+        runs += await this.testLot(em, standalone.engine, standalone.simulation, { lot, primary, secondary, requester, config, windowStart });
       }
     } finally {
       const tx = em.fork();
@@ -104,7 +104,7 @@ export class HistorySeeder extends Seeder {
   private async testLot(
     em: EntityManager,
     engine: RunEngineService,
-    links: ReturnType<typeof createStandaloneEngine>['links'],
+    simulation: SimulatedEngine['simulation'],
     plan: { lot: Lot; primary: Station; secondary: Station; requester: RunRequester; config: SimulatorConfig; windowStart: Date },
   ): Promise<number> {
     const { lot, primary, secondary, requester, config } = plan;
@@ -112,7 +112,7 @@ export class HistorySeeder extends Seeder {
     const tx = em.fork();
     await tx.nativeUpdate(Lot, { id: lot.id }, { state: LotState.Open });
     await tx.nativeUpdate(Station, { id: { $in: [primary.id, secondary.id] } }, { activeLot: lot.id } as never);
-    for (const s of [primary, secondary]) await links.reconfigureSimulator(s.fixture!.code, config);
+    for (const s of [primary, secondary]) await simulation.reconfigure(s.fixture!.code, config);
 
     const units = await em.fork().find(Unit, { lot: lot.id }, { orderBy: { serial: 'asc' }, fields: ['id', 'serial'] });
     const clocks = new Map([primary, secondary].map((s) => [s.id, new VirtualClock(plan.windowStart)]));
@@ -155,7 +155,7 @@ export class HistorySeeder extends Seeder {
           .filter((s) => defectFor(s, lot.code, config) === 'intermittent_contact' && fraction(`${s}|reseat`) < RESEATED_PASS_SHARE)
           .map((s) => [s, 'good' as const]),
       );
-      await links.reconfigureSimulator(primary.fixture!.code, { ...config, serials: reseated });
+      await simulation.reconfigure(primary.fixture!.code, { ...config, serials: reseated });
       const clock = clocks.get(primary.id)!;
       const latest = Math.max(...[...clocks.values()].map((c) => c.now().getTime()));
       clock.set(new Date(latest + 45 * 60_000));

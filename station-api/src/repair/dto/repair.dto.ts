@@ -1,6 +1,6 @@
 import { ApiProperty } from '@nestjs/swagger';
 import { Transform } from 'class-transformer';
-import { IsIn, IsString, Length } from 'class-validator';
+import { IsIn, IsOptional, IsString, Length } from 'class-validator';
 import { UnitDto } from '../../units/dto/unit.dto';
 import { REPAIR_ACTIONS, type RepairAction } from '../repair-transitions';
 
@@ -28,4 +28,18 @@ export class RepairResultDto {
   @ApiProperty({ description: 'state after the action' }) toState!: string;
   @ApiProperty({ description: 'id of the audit event that records this repair step' }) auditEventId!: number;
   @ApiProperty({ type: UnitDto }) unit!: UnitDto;
+}
+
+export class SendToRepairDto {
+  @ApiProperty({
+    required: false,
+    maxLength: REPAIR_NOTE_MAX,
+    example: 'Output low again after re-seating',
+    description: 'why the unit goes to repair with attempts left; kept as the reason in the audit trail',
+  })
+  @IsOptional()
+  @Transform(({ value }) => (typeof value === 'string' ? value.trim() : value))
+  @IsString({ message: 'note must be text' })
+  @Length(0, REPAIR_NOTE_MAX, { message: `note must be at most ${REPAIR_NOTE_MAX} characters` })
+  note?: string;
 }

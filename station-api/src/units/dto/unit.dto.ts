@@ -15,6 +15,8 @@ export class UnitDto {
   @ApiProperty({ enum: UnitState }) state!: UnitState;
   @ApiProperty({ description: 'completed runs (pass or fail)' }) testCount!: number;
   @ApiProperty({ type: String, nullable: true, description: 'ISO 8601' }) lastTestedAt!: string | null;
+  @ApiProperty({ type: String, nullable: true, description: 'when the operator sent the failed unit to repair (ISO 8601); null: not sent' })
+  sentToRepairAt!: string | null;
   @ApiProperty({ type: UnitLotDto }) lot!: UnitLotDto;
   @ApiProperty({ type: ProductDto }) product!: ProductDto;
 }

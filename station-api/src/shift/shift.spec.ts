@@ -93,7 +93,7 @@ describe('shiftAt', () => {
 
 describe('firstPassYieldPct', () => {
   it('matches the worked first-pass yield: 962 of 1000 pass first time → 96.2 %', () => {
-    // self-constructed example (definition: Stamatis, Six Sigma Fundamentals); by hand 962/1000 = 96.2 %
+    // self-constructed example; definition of first-pass yield: D. H. Stamatis, Six Sigma Fundamentals (from memory, unverified)
     rel(firstPassYieldPct(962, 1000), 96.2);
   });
 
@@ -107,24 +107,39 @@ describe('firstPassYieldPct', () => {
   });
 });
 
+// Definition written for issue 8 ("Units per hour shows 0 after the first unit of a shift"); the figures
+// are self-constructed examples worked by hand.
 describe('unitsPerHour', () => {
   const start = at(2026, 12, 2, 6);
   const end = at(2026, 12, 2, 14);
+  const times = (...hm: [number, number][]) => hm.map(([h, m]) => at(2026, 12, 2, h, m));
 
-  it('divides judged runs by the hours elapsed', () => {
-    // arithmetic: 10 runs in 2 h = 5 per hour
-    expect(unitsPerHour(10, start, at(2026, 12, 2, 8), end)).toBe(5);
-    expect(unitsPerHour(3, start, at(2026, 12, 2, 6, 45), end)).toBe(4);
+  it('counts the units finished in the last hour once the shift is an hour old', () => {
+    // 10:00: the window is (09:00, 10:00]; 08:30 and 09:00 are outside, 09:01 … 10:00 inside
+    expect(unitsPerHour(times([8, 30], [9, 0], [9, 1], [9, 30], [10, 0]), start, at(2026, 12, 2, 10), end)).toBe(3);
   });
 
-  it('counts at least one minute, so an early run does not show thousands per hour', () => {
-    expect(unitsPerHour(1, start, at(2026, 12, 2, 6, 0, 5), end)).toBe(60);
-    expect(unitsPerHour(1, start, start, end)).toBe(60);
+  it('shows 1, not 0, after the first unit of a shift that began hours ago (the reported defect)', () => {
+    // old definition: 1 run ÷ 5 h = 0.2 → shown as 0
+    expect(unitsPerHour(times([11, 0]), start, at(2026, 12, 2, 11, 0, 30), end)).toBe(1);
   });
 
-  it('stops the clock at the shift end and is null before the first run', () => {
-    expect(unitsPerHour(16, start, at(2026, 12, 2, 20), end)).toBe(2);
-    expect(unitsPerHour(0, start, at(2026, 12, 2, 8), end)).toBeNull();
+  it('reads 0 only when the station finished nothing in the last hour', () => {
+    expect(unitsPerHour(times([7, 0], [7, 10]), start, at(2026, 12, 2, 9), end)).toBe(0);
+  });
+
+  it('in the first hour: a rate over the shift so far from 3 units on, else null', () => {
+    // 3 units by 06:45 → 3 ÷ 0.75 h = 4 per hour
+    expect(unitsPerHour(times([6, 20], [6, 30], [6, 44]), start, at(2026, 12, 2, 6, 45), end)).toBe(4);
+    expect(unitsPerHour(times([6, 20], [6, 30]), start, at(2026, 12, 2, 6, 45), end)).toBeNull();
+    // an hour of shift with 3 units is the window rule: 3
+    expect(unitsPerHour(times([6, 20], [6, 30], [6, 44]), start, at(2026, 12, 2, 7), end)).toBe(3);
+  });
+
+  it('stops the clock at the shift end and is null when the shift has no unit', () => {
+    // shift over (14:00): the window is (13:00, 14:00]
+    expect(unitsPerHour(times([12, 59], [13, 30], [13, 59]), start, at(2026, 12, 2, 20), end)).toBe(2);
+    expect(unitsPerHour([], start, at(2026, 12, 2, 8), end)).toBeNull();
   });
 });
 
@@ -140,8 +155,7 @@ describe('summarizeShift', () => {
   });
 
   it('reproduces the worked yield example: 1000 units, 962 first-time passes, 30 pass on retest, 8 fail again', () => {
-    // self-constructed example (definitions: Stamatis, Six Sigma Fundamentals): FPY = 962/1000 = 0.962,
-    // final yield = 992/1000 = 0.992
+    // self-constructed example (arithmetic): FPY = 962/1000 = 0.962, final yield = 992/1000 = 0.992
     const runs: ShiftRun[] = [];
     for (let u = 1; u <= 1000; u++) {
       const t = at(2026, 12, 2, 7, 0, 0, u);
@@ -157,8 +171,9 @@ describe('summarizeShift', () => {
     expect(c.passed).toBe(992);
     rel(c.passed / c.tested, 0.992);
     expect(c.failed).toBe(8);
-    // 1038 judged runs in 4 h
-    rel(c.unitsPerHour, 1038 / 4);
+    // the shift is 4 h old at 10:00: units per hour = judged runs finished in (09:00, 10:00] — the 38
+    // retests, finished a few milliseconds after 09:00
+    expect(c.unitsPerHour).toBe(38);
   });
 
   it('counts a finish exactly at the shift start, not one exactly at the shift end', () => {

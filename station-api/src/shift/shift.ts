@@ -110,13 +110,15 @@ export interface ShiftCounts {
   unitsPerHour: number | null;
 }
 
-/** Below this much elapsed shift time the rate is computed as if this much had passed (no 3600/h after one second). */
-export const MIN_RATE_ELAPSED_MS = 60_000;
+/** The rate window: units finished in the last hour are the units per hour once the shift is that old. */
+export const RATE_WINDOW_MS = 3_600_000;
+/** In a shift younger than the window, a rate over the shift so far is shown only from this many units on. */
+export const MIN_UNITS_FOR_EARLY_RATE = 3;
 
 /**
  * First-pass yield in percent: units that passed their first test ÷ units tested for the first time.
- * Follows the common definition "passed the first time, without rework or retest" (Stamatis, *Six Sigma
- * Fundamentals*).
+ * Follows the common definition "passed the first time, without rework or retest" (D. H. Stamatis, *Six
+ * Sigma Fundamentals*, Productivity Press, 2004 — from memory, unverified).
  * @returns null when no unit had its first test (nothing to divide by)
  */
 export function firstPassYieldPct(firstPassed: number, firstTested: number): number | null {
@@ -127,18 +129,29 @@ export function firstPassYieldPct(firstPassed: number, firstTested: number): num
 }
 
 /**
- * Judged runs per hour of shift time elapsed so far.
- * @param judgedRuns runs that finished pass or fail in the shift
- * @param shiftStart start of the shift
- * @param until now, or the shift end for a shift that is over (whichever is earlier is used)
- * @param shiftEnd end of the shift
- * @returns runs per hour; elapsed time counts as at least {@link MIN_RATE_ELAPSED_MS}; null when no run
- *   has finished yet (no rate to show)
+ * Units per hour, defined so that it means something from the first unit of a shift on (issue 8: the old
+ * "runs ÷ hours since shift start" read 0 after the first unit of a long shift):
+ *
+ * - once the shift is at least an hour old: the units finished in the last hour (a trailing 60-minute
+ *   window ending now, or at the shift end for a shift that is over) — a count, so it is exact and reads 0
+ *   only when the station really finished nothing for an hour;
+ * - in the shift's first hour, from {@link MIN_UNITS_FOR_EARLY_RATE} units on: units ÷ hours elapsed;
+ * - otherwise (fewer units in the first hour, or none in the shift): null, shown as "—".
+ *
+ * A unit here is a judged run (pass or fail): what the fixture got through, retests included.
+ * @param finishedAt finish times of the judged runs in the shift
+ * @param until now; a time after the shift end counts as the shift end
  */
-export function unitsPerHour(judgedRuns: number, shiftStart: Date, until: Date, shiftEnd: Date): number | null {
-  if (judgedRuns === 0) return null;
-  const elapsedMs = Math.max(Math.min(until.getTime(), shiftEnd.getTime()) - shiftStart.getTime(), MIN_RATE_ELAPSED_MS);
-  return judgedRuns / (elapsedMs / 3_600_000);
+export function unitsPerHour(finishedAt: readonly Date[], shiftStart: Date, until: Date, shiftEnd: Date): number | null {
+  if (finishedAt.length === 0) return null;
+  const end = Math.min(until.getTime(), shiftEnd.getTime());
+  const elapsedMs = end - shiftStart.getTime();
+  if (elapsedMs >= RATE_WINDOW_MS) {
+    // (end − 1 h, end]: a run finishing exactly an hour ago has left the window
+    return finishedAt.filter((t) => t.getTime() > end - RATE_WINDOW_MS && t.getTime() <= end).length;
+  }
+  if (finishedAt.length < MIN_UNITS_FOR_EARLY_RATE || elapsedMs <= 0) return null;
+  return finishedAt.length / (elapsedMs / RATE_WINDOW_MS);
 }
 
 /**
@@ -152,7 +165,8 @@ export function unitsPerHour(judgedRuns: number, shiftStart: Date, until: Date, 
  * - `firstPassYieldPct`: units whose first-ever judged run (attempt 1) passed ÷ units whose first-ever
  *   judged run finished here in this shift; see {@link firstPassYieldPct}. A retest later in the shift
  *   does not change it.
- * - `unitsPerHour`: judged runs ÷ hours elapsed in the shift; see {@link unitsPerHour}.
+ * - `unitsPerHour`: units finished in the last hour, or early in the shift a rate over the shift so far; see
+ *   {@link unitsPerHour}.
  */
 export function summarizeShift(runs: readonly ShiftRun[], window: Pick<ShiftWindow, 'start' | 'end'>, now: Date): ShiftCounts {
   const from = window.start.getTime();
@@ -183,6 +197,6 @@ export function summarizeShift(runs: readonly ShiftRun[], window: Pick<ShiftWind
     errors: inShift.filter((r) => r.verdict === 'error').length,
     aborted: inShift.filter((r) => r.verdict === 'aborted').length,
     firstPassYieldPct: firstPassYieldPct(firstPassed, firstRuns.size),
-    unitsPerHour: unitsPerHour(judged.length, window.start, now, window.end),
+    unitsPerHour: unitsPerHour(judged.map((r) => r.finishedAt!), window.start, now, window.end),
   };
 }

@@ -6,11 +6,16 @@ import { toMeasuredAgainstLimits } from '../runs/run-views';
 import { RunVerdict, TestRun } from '../runs/test-run.entity';
 import { Station } from '../stations/station.entity';
 import { Unit, UnitState } from '../units/unit.entity';
-import type { RepairFailureDto, RepairQueueDto, RepairQueueItemDto, RepairQueueQueryDto } from './dto/floor.dto';
+import type { RepairFailureDto, RepairQueueDto, RepairQueueItemDto, RepairQueueQueryDto } from './dto/repair-queue.dto';
+import { repairQueueReason, type RepairQueueReason } from './retest-policy';
+
+/** Attempts per unit when no failing run (with its plan version) is stored, e.g. a state set by hand */
+const DEFAULT_MAX_ATTEMPTS = 3;
 
 /**
- * Units waiting for repair: state `failed` (the engine sets it when a run fails) or `in_repair`, each with
- * its last failing run and that run's first failing measurement. Oldest failure first, as a bench works.
+ * Units waiting for repair under the retest policy (./retest-policy.ts): failed units with no attempts left
+ * or sent by the operator, and units in repair; each with its last failing run and that run's first failing
+ * measurement. Oldest failure first, as a bench works.
  */
 @Injectable()
 export class RepairQueueService {
@@ -35,12 +40,16 @@ export class RepairQueueService {
       const runs = await em.find(
         TestRun,
         { unit: { $in: ids }, verdict: RunVerdict.Fail },
-        { populate: ['station'], orderBy: { finishedAt: 'desc', id: 'desc' } },
+        { populate: ['station', 'planVersion'], orderBy: { finishedAt: 'desc', id: 'desc' } },
       );
       for (const r of runs) if (!lastFail.has(r.unit.id)) lastFail.set(r.unit.id, r);
     }
 
-    let rows = units.map((unit) => ({ unit, run: lastFail.get(unit.id) }));
+    let rows = units.flatMap((unit) => {
+      const run = lastFail.get(unit.id);
+      const reason = repairQueueReason(unit, run?.planVersion.maxAttempts ?? DEFAULT_MAX_ATTEMPTS);
+      return reason ? [{ unit, run, reason }] : [];
+    });
     if (q.stationId !== undefined) rows = rows.filter((r) => r.run?.station.id === q.stationId);
     // oldest failure first; a unit with no stored failing run (e.g. set by hand) goes last
     rows.sort((a, b) => (a.run?.finishedAt?.getTime() ?? Infinity) - (b.run?.finishedAt?.getTime() ?? Infinity) || a.unit.id - b.unit.id);
@@ -49,10 +58,12 @@ export class RepairQueueService {
     const page = rows.slice(offset, offset + (q.limit ?? 200));
     const firstFailure = await this.firstFailures(em, page.flatMap((r) => (r.run ? [r.run.id] : [])));
 
-    const items: RepairQueueItemDto[] = page.map(({ unit, run }) => ({
+    const items: RepairQueueItemDto[] = page.map(({ unit, run, reason }) => ({
       unitId: unit.id,
       serial: unit.serial,
       state: unit.state as 'failed' | 'in_repair',
+      reason: reason as RepairQueueReason,
+      sentToRepairAt: unit.sentToRepairAt?.toISOString() ?? null,
       testCount: unit.testCount,
       lot: { id: unit.lot.id, code: unit.lot.code, partNumber: unit.product.partNumber },
       lastFailingRun: run

@@ -4,12 +4,12 @@ import { ConfigService } from '@nestjs/config';
 import type { EnvironmentVariables } from '../config/env.validation';
 import { TestRun } from '../runs/test-run.entity';
 import { Station } from '../stations/station.entity';
-import type { ShiftSummaryDto } from './dto/floor.dto';
+import type { ShiftSummaryDto } from './dto/shift.dto';
 import { parseShiftStarts, ShiftStart, shiftAt, ShiftWindow, summarizeShift } from './shift';
 
-/** Where the floor feature reads the time; tests can provide another. */
-export const FLOOR_CLOCK = Symbol('FLOOR_CLOCK');
-export type FloorClock = () => Date;
+/** Where the shift counters read the time; tests can provide another. */
+export const SHIFT_CLOCK = Symbol('SHIFT_CLOCK');
+export type ShiftClock = () => Date;
 
 /** The current shift's counters per station (arithmetic in ./shift.ts). */
 @Injectable()
@@ -19,7 +19,7 @@ export class ShiftSummaryService {
   constructor(
     private readonly em: EntityManager,
     config: ConfigService<EnvironmentVariables, true>,
-    @Inject(FLOOR_CLOCK) private readonly clock: FloorClock,
+    @Inject(SHIFT_CLOCK) private readonly clock: ShiftClock,
   ) {
     // validated at start-up (env.validation.ts); parsing again here gives the sorted list
     this.starts = parseShiftStarts(config.get('SHIFT_STARTS', { infer: true }));

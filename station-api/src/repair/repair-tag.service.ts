@@ -4,7 +4,7 @@ import { Measurement, MeasurementVerdict } from '../runs/measurement.entity';
 import { toMeasuredAgainstLimits } from '../runs/run-views';
 import { RunVerdict, TestRun } from '../runs/test-run.entity';
 import { isCode128TagText } from './code128';
-import { renderRepairTag, RepairTagFailure } from './repair-tag.pdf';
+import { renderRepairTag, RepairTagFailure, type PrinterDpi } from './repair-tag.pdf';
 
 export interface RepairTagFile {
   pdf: Buffer;
@@ -30,9 +30,9 @@ const REFUSALS: Record<Exclude<RunVerdict, RunVerdict.Fail>, { code: string; mes
 export class RepairTagService {
   constructor(private readonly em: EntityManager) {}
 
-  async forRun(runId: number): Promise<RepairTagFile> {
+  async forRun(runId: number, dpi: PrinterDpi = 203): Promise<RepairTagFile> {
     const em = this.em.fork();
-    const run = await em.findOne(TestRun, { id: runId }, { populate: ['unit', 'lot', 'product', 'station', 'fixture', 'operator'] });
+    const run = await em.findOne(TestRun, { id: runId }, { populate: ['unit', 'lot', 'product', 'station', 'fixture', 'operator', 'planVersion.plan'] });
     if (!run) throw new NotFoundException({ message: `There is no run with id ${runId}.`, details: { code: 'run_not_found' } });
     if (run.verdict !== RunVerdict.Fail) {
       const r = REFUSALS[run.verdict];
@@ -52,6 +52,7 @@ export class RepairTagService {
     );
     const failures: RepairTagFailure[] = failing.map((m) => ({
       stepName: m.stepName,
+      quantity: m.quantity,
       name: m.name,
       ...toMeasuredAgainstLimits(m),
       verdict: m.verdict === MeasurementVerdict.GuardFail ? 'guard_fail' : 'fail',
@@ -67,8 +68,9 @@ export class RepairTagService {
       attempt: run.attempt,
       // a failed run always has a finish time; the start is the fallback for a damaged record
       finishedAt: run.finishedAt ?? run.startedAt,
+      plan: { code: run.planVersion.plan.code, version: run.planVersion.version },
       failures,
-    });
+    }, { dpi });
     return { pdf, fileName: `repair-tag-${serial.replace(/[^A-Za-z0-9._-]/g, '_')}-run${run.id}.pdf` };
   }
 }

@@ -1,11 +1,14 @@
 import bwipjs from 'bwip-js';
 import PDFDocument from 'pdfkit';
+import { formatMeasured } from '../contract/value-format';
 import type { MeasuredAgainstLimits } from '../runs/run-views';
 import { isCode128TagText } from './code128';
 
 /** One measurement that did not pass, as the tag prints it. Values and limits are in `unit`. */
 export interface RepairTagFailure extends MeasuredAgainstLimits {
   stepName: string;
+  /** The judged quantity's key (e.g. `voutV@1.5`): decides the digits, as on the screen */
+  quantity: string;
   /** Name of the judged quantity, e.g. "Output voltage at 1.5 A" */
   name: string;
   verdict: 'fail' | 'guard_fail';
@@ -22,12 +25,20 @@ export interface RepairTagData {
   operatorName: string;
   attempt: number;
   finishedAt: Date;
+  /** The plan version the unit was judged against, e.g. code `OB-BK0503-EOL`, version 3 */
+  plan: { code: string; version: number };
   failures: RepairTagFailure[];
 }
+
+/** Label printers the tag is laid out for: thermal printers come at 203 dpi (8 dots/mm) and 300 dpi. */
+export const PRINTER_DPI = [203, 300] as const;
+export type PrinterDpi = (typeof PRINTER_DPI)[number];
 
 export interface RepairTagOptions {
   /** Deflate the page content (default true). Tests turn it off to read the text directly. */
   compress?: boolean;
+  /** The label printer's resolution: the barcode's bars are laid on its dots (default 203) */
+  dpi?: PrinterDpi;
 }
 
 const MM = 72 / 25.4;
@@ -35,12 +46,34 @@ const MM = 72 / 25.4;
 export const TAG_WIDTH_PT = 100 * MM;
 export const TAG_HEIGHT_PT = 70 * MM;
 const MARGIN = 3 * MM;
-/** Narrow-bar width X. 0.33 mm reads on any handheld scanner (common practice, no source); 0.25 mm is the least we go to. */
-const MODULE_MM = 0.33;
-const MIN_MODULE_MM = 0.25;
 /** Quiet zone each side of a Code 128 symbol: 10 X (ISO/IEC 15417, from memory). */
 const QUIET_MODULES = 10;
 const BAR_HEIGHT_PT = 10 * MM;
+/** Narrow-bar width X we aim for: 0.33 mm reads on any handheld scanner (common practice, no source)… */
+const TARGET_MODULE_MM = 0.33;
+/** …and the least we go to for a long serial (common practice, no source). */
+const MIN_MODULE_MM = 0.25;
+
+/**
+ * The module width X as a whole number of printer dots. A bar that is not a whole number of dots is
+ * rounded edge by edge by the printer, so bars of the same width come out one dot apart — on a 2-dot
+ * module that is a 50 % width error, enough to misread. No single width is whole at both 203 and 300 dpi:
+ * 203 = 7·29 and 300 = 2²·3·5² share no factor, so the smallest common multiple of their dot pitches is a
+ * whole inch. The tag is therefore laid out for the printer it goes to: X is the whole number of dots
+ * closest to 0.33 mm (3 dots = 0.375 mm at 203 dpi, 4 dots = 0.339 mm at 300 dpi), fewer for a serial too
+ * long for the label, never under 0.25 mm (2 dots = 0.250 mm at 203 dpi, 3 dots = 0.254 mm at 300 dpi).
+ * @param modules the symbol's width in modules, without quiet zones
+ * @param widthPt the room for the symbol and both quiet zones
+ * @returns dots per module and the module width in points
+ */
+export function moduleDots(dpi: PrinterDpi, modules: number, widthPt: number): { dots: number; modulePt: number } {
+  const dotPt = 72 / dpi;
+  const minDots = Math.ceil((MIN_MODULE_MM * MM) / dotPt - 1e-9);
+  let dots = Math.max(minDots, Math.round((TARGET_MODULE_MM * MM) / dotPt));
+  // shrink for a long serial, but never below the least readable width
+  while (dots > minDots && (modules + 2 * QUIET_MODULES) * dots * dotPt > widthPt) dots--;
+  return { dots, modulePt: dots * dotPt };
+}
 
 /** Pixels per module in the PNG; the PDF scales the image to the module width above. */
 export const BARCODE_PX_PER_MODULE = 2;
@@ -87,37 +120,30 @@ function fitWidth(doc: PDFKit.PDFDocument, text: string, widthPt: number): strin
   return `${cut.trimEnd()}…`;
 }
 
-/** Three significant decimals in the instrument range we test (0.001 V … 999.9 mA), no exponent. */
-export function formatReading(value: number): string {
-  const a = Math.abs(value);
-  if (a >= 1000) return value.toFixed(0);
-  if (a >= 100) return value.toFixed(1);
-  if (a >= 10) return value.toFixed(2);
-  return value.toFixed(3);
-}
-
-function withUnit(value: number, unit: string): string {
-  return unit ? `${formatReading(value)} ${unit}` : formatReading(value);
-}
-
-/** "4.850 … 5.150 V", "at least 80.0 %", "at most 35.0 mA" */
-export function formatLimits(low: number | null, high: number | null, unit: string): string {
-  const u = unit ? ` ${unit}` : '';
-  if (low !== null && high !== null) return `${formatReading(low)} … ${formatReading(high)}${u}`;
-  if (low !== null) return `at least ${formatReading(low)}${u}`;
-  if (high !== null) return `at most ${formatReading(high)}${u}`;
-  return 'no limit';
-}
-
-/** The second line of a failure: what was read, the spec, and why it was rejected. */
+/**
+ * What was read, the specification and why it was rejected, written with the one formatter the screens use
+ * (`formatMeasured`, src/contract/value-format.ts), so tag and screen show the same digits.
+ */
 export function failureDetail(f: RepairTagFailure): string {
-  const reading = f.value === null ? 'no reading' : withUnit(f.value, f.unit);
-  const spec = `spec ${formatLimits(f.lowLimit, f.highLimit, f.unit)}`;
+  const m = formatMeasured(f);
+  const reading = f.value === null ? 'no reading' : m.unit ? `${m.value} ${m.unit}` : m.value;
+  const spec = `spec ${m.spec}`;
   if (f.verdict === 'guard_fail') {
-    const guard = f.guardedLow !== null || f.guardedHigh !== null ? ` (accept ${formatLimits(f.guardedLow, f.guardedHigh, f.unit)})` : '';
-    return `${reading}; ${spec}; inside spec, outside guard band${guard}`;
+    return `${reading}; ${spec}; inside spec, outside guard band${m.accept ? ` (accept ${m.accept})` : ''}`;
   }
   return f.value === null ? `${reading}; ${spec}` : `${reading}; ${spec}; outside spec`;
+}
+
+/** Failures grouped by step, in the order given (plan order): the step's name is printed once. */
+export function byStep(failures: readonly RepairTagFailure[]): { stepName: string; lines: string[] }[] {
+  const groups: { stepName: string; lines: string[] }[] = [];
+  for (const f of failures) {
+    let g = groups.at(-1);
+    if (!g || g.stepName !== f.stepName) groups.push((g = { stepName: f.stepName, lines: [] }));
+    const detail = failureDetail(f);
+    g.lines.push(f.name === f.stepName ? detail : `${f.name}: ${detail}`);
+  }
+  return groups;
 }
 
 /** "2026-12-02 14:07" in the server's local time, which is the plant's wall clock */
@@ -138,6 +164,8 @@ export async function renderRepairTag(tag: RepairTagData, options: RepairTagOpti
   }
   const png = await code128Png(tag.serial);
   const modules = pngWidthPx(png) / BARCODE_PX_PER_MODULE;
+  const dpi = options.dpi ?? 203;
+  const dotPt = 72 / dpi;
 
   const doc = new PDFDocument({
     size: [TAG_WIDTH_PT, TAG_HEIGHT_PT],
@@ -159,8 +187,9 @@ export async function renderRepairTag(tag: RepairTagData, options: RepairTagOpti
   const heading = (continued: boolean): number => {
     doc.font('Helvetica-Bold').fontSize(14).fillColor('black');
     doc.text(continued ? 'SEND TO REPAIR (continued)' : 'SEND TO REPAIR', MARGIN, MARGIN, { width: inner, lineBreak: false });
+    // the run number is among the facts below; the heading names what the unit was judged against
     doc.font('Helvetica').fontSize(7);
-    doc.text(`Run ${tag.runId}`, MARGIN, MARGIN + 4, { width: inner, align: 'right', lineBreak: false });
+    doc.text(printable(`Plan ${tag.plan.code} v${tag.plan.version}`), MARGIN, MARGIN + 4, { width: inner, align: 'right', lineBreak: false });
     const y = MARGIN + 18;
     doc.moveTo(MARGIN, y).lineTo(MARGIN + inner, y).lineWidth(0.8).stroke();
     return y + 4;
@@ -168,13 +197,13 @@ export async function renderRepairTag(tag: RepairTagData, options: RepairTagOpti
 
   let y = heading(false);
 
-  // barcode: module width X, shrunk (not below 0.25 mm) only if a long serial would not fit with its quiet zones
-  const fitMm = inner / (modules + 2 * QUIET_MODULES) / MM;
-  const moduleMm = Math.max(Math.min(MODULE_MM, fitMm), Math.min(MIN_MODULE_MM, fitMm));
-  const x = moduleMm * MM;
-  doc.image(png, MARGIN + QUIET_MODULES * x, y, { width: modules * x, height: BAR_HEIGHT_PT });
-  y += BAR_HEIGHT_PT + 2;
-  doc.font('Courier-Bold').fontSize(11).text(tag.serial, MARGIN + QUIET_MODULES * x, y, { lineBreak: false });
+  // barcode: module width X in whole printer dots, and the symbol starting on a dot (see moduleDots)
+  const x = moduleDots(dpi, modules, inner).modulePt;
+  const barX = Math.ceil((MARGIN + QUIET_MODULES * x) / dotPt - 1e-9) * dotPt;
+  const barY = Math.ceil(y / dotPt - 1e-9) * dotPt;
+  doc.image(png, barX, barY, { width: modules * x, height: BAR_HEIGHT_PT });
+  y = barY + BAR_HEIGHT_PT + 2;
+  doc.font('Courier-Bold').fontSize(11).text(tag.serial, barX, y, { lineBreak: false });
   y += 14;
 
   const facts: [string, string][][] = [
@@ -208,23 +237,35 @@ export async function renderRepairTag(tag: RepairTagData, options: RepairTagOpti
   if (tag.failures.length === 0) {
     doc.font('Helvetica').fontSize(6.5).text('No failing measurement was stored; see the run record.', MARGIN, y, { width: inner });
   }
-  for (const f of tag.failures) {
-    const title = printable(f.stepName === f.name ? f.name : `${f.stepName}: ${f.name}`);
-    const detail = printable(failureDetail(f));
-    doc.font('Helvetica-Bold').fontSize(6.5);
-    const titleH = doc.heightOfString(title, { width: inner });
-    doc.font('Helvetica').fontSize(6.5);
-    const detailH = doc.heightOfString(detail, { width: inner - 6 });
-    if (y + titleH + detailH > bottom) {
-      doc.addPage();
-      y = heading(true);
-      doc.font('Courier-Bold').fontSize(9).text(tag.serial, MARGIN, y, { lineBreak: false });
-      y += 12;
+  const newLabel = () => {
+    doc.addPage();
+    y = heading(true);
+    doc.font('Courier-Bold').fontSize(9).text(tag.serial, MARGIN, y, { lineBreak: false });
+    y += 12;
+  };
+  for (const group of byStep(tag.failures)) {
+    const title = printable(group.stepName);
+    let titled = false;
+    for (const line of group.lines) {
+      const detail = printable(line);
+      doc.font('Helvetica-Bold').fontSize(6.5);
+      const titleH = titled ? 0 : doc.heightOfString(title, { width: inner });
+      doc.font('Helvetica').fontSize(6.5);
+      const detailH = doc.heightOfString(detail, { width: inner - 6 });
+      if (y + titleH + detailH > bottom) {
+        newLabel();
+        // the step is named again at the top of a new label
+        titled = false;
+      }
+      if (!titled) {
+        doc.font('Helvetica-Bold').fontSize(6.5).text(title, MARGIN, y, { width: inner });
+        y += doc.heightOfString(title, { width: inner });
+        titled = true;
+      }
+      doc.font('Helvetica').fontSize(6.5).text(detail, MARGIN + 6, y, { width: inner - 6 });
+      y += detailH + 1;
     }
-    doc.font('Helvetica-Bold').fontSize(6.5).text(title, MARGIN, y, { width: inner });
-    y += titleH;
-    doc.font('Helvetica').fontSize(6.5).text(detail, MARGIN + 6, y, { width: inner - 6 });
-    y += detailH + 2;
+    y += 1;
   }
 
   doc.end();

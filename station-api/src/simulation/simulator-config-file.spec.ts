@@ -3,8 +3,8 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { validateEnv } from './env.validation';
-import { readSimulatorConfigFile, SimulatorConfigFileError } from './fixture-sim.config';
+import { validateEnv } from '../config/env.validation';
+import { readSimulatorConfigFile, SimulatorConfigFileError } from './simulator-config-file';
 
 describe('FIXTURE_SIM_CONFIG file', () => {
   const dir = mkdtempSync(join(tmpdir(), 'railwright-simcfg-'));

@@ -1,20 +1,23 @@
 import { describe, expect, it } from 'vitest';
 import { decodePng, pdfRgbImages, pdfText, readBarcode } from './pdf-inspect.spec-helper';
+import { formatMeasured } from '../contract/value-format';
 import {
+  byStep,
   code128Png,
   failureDetail,
-  formatLimits,
-  formatReading,
   localDateTime,
+  moduleDots,
   RepairTagData,
   RepairTagFailure,
   renderRepairTag,
+  type PrinterDpi,
   TAG_HEIGHT_PT,
   TAG_WIDTH_PT,
 } from './repair-tag.pdf';
 
 const failure = (over: Partial<RepairTagFailure> = {}): RepairTagFailure => ({
   stepName: 'Output at load',
+  quantity: 'voutV@1.5',
   name: 'Output voltage at 1.5 A',
   value: 4.712,
   unit: 'V',
@@ -36,25 +39,20 @@ const TAG: RepairTagData = {
   operatorName: 'Line B operator',
   attempt: 1,
   finishedAt: new Date(2026, 11, 2, 14, 7, 30),
+  plan: { code: 'OB-BK0503-EOL', version: 3 },
   failures: [
     failure(),
-    failure({ stepName: 'Ripple', name: 'Output ripple', value: 31.5, unit: 'mV', lowLimit: null, highLimit: 50, guardedLow: null, guardedHigh: 48.2, verdict: 'guard_fail' }),
+    failure({ stepName: 'Ripple', quantity: 'rippleMvPp', name: 'Output ripple', value: 31.5, unit: 'mV', lowLimit: null, highLimit: 50, guardedLow: null, guardedHigh: 48.2, verdict: 'guard_fail' }),
   ],
 };
 
 describe('formatting', () => {
-  it('prints readings with three decimals below 10 and fewer above', () => {
-    expect(formatReading(4.71249)).toBe('4.712');
-    expect(formatReading(31.5)).toBe('31.50');
-    expect(formatReading(912.34)).toBe('912.3');
-    expect(formatReading(-0.0123)).toBe('-0.012');
-  });
-
-  it('prints two-sided and one-sided limits', () => {
-    expect(formatLimits(4.85, 5.15, 'V')).toBe('4.850 … 5.150 V');
-    expect(formatLimits(80, null, '%')).toBe('at least 80.00 %');
-    expect(formatLimits(null, 35, 'mA')).toBe('at most 35.00 mA');
-    expect(formatLimits(null, null, 'V')).toBe('no limit');
+  it('writes figures with the formatter the screens use (one formatter for screen and tag)', () => {
+    // issue 7/8: the tag printed 87.72 % where the screen printed 87.7 %
+    const eff = failure({ stepName: 'Efficiency', quantity: 'efficiencyPct@1.5', name: 'Efficiency at 1.5 A', value: 87.72, unit: '%', lowLimit: 88, highLimit: null });
+    expect(failureDetail(eff)).toBe('87.7 %; spec ≥ 88.0 %; outside spec');
+    const screen = formatMeasured(eff);
+    expect(failureDetail(eff)).toBe(`${screen.value} ${screen.unit}; spec ${screen.spec}; outside spec`);
   });
 
   it('says why a measurement was rejected', () => {
@@ -63,6 +61,18 @@ describe('formatting', () => {
     expect(failureDetail(failure({ value: 4.852, verdict: 'guard_fail', guardedLow: 4.855, guardedHigh: 5.145 }))).toBe(
       '4.852 V; spec 4.850 … 5.150 V; inside spec, outside guard band (accept 4.855 … 5.145 V)',
     );
+  });
+
+  it('names each step once, however many of its measurements failed', () => {
+    const groups = byStep([
+      failure(),
+      failure({ quantity: 'regulationPct', name: 'Load regulation', value: 1.2, unit: '%', lowLimit: null, highLimit: 1 }),
+      failure({ stepName: 'Ripple', quantity: 'rippleMvPp', name: 'Ripple', value: 60, unit: 'mV', lowLimit: null, highLimit: 50 }),
+    ]);
+    expect(groups).toEqual([
+      { stepName: 'Output at load', lines: ['Output voltage at 1.5 A: 4.712 V; spec 4.850 … 5.150 V; outside spec', 'Load regulation: 1.20 %; spec ≤ 1.00 %; outside spec'] },
+      { stepName: 'Ripple', lines: ['60.0 mV; spec ≤ 50.0 mV; outside spec'] },
+    ]);
   });
 
   it('writes the finish time as local wall-clock time', () => {
@@ -90,9 +100,11 @@ describe('renderRepairTag', () => {
       expect(text).toContain('SEND TO REPAIR');
       expect(text).toContain('K5A-2648-00017');
       for (const fact of ['OB-BK0503', 'LB-2648-03', 'EOL-1', 'FX-101', 'Line B operator', '2026-12-02 14:07', '4711']) expect(text).toContain(fact);
-      expect(text).toContain('Output at load: Output voltage at 1.5 A');
-      expect(text).toContain('4.712 V; spec 4.850 … 5.150 V; outside spec');
-      expect(text).toContain('31.50 mV; spec at most 50.00 mV; inside spec, outside guard band (accept at most 48.20 mV)');
+      expect(text).toContain('Output at load Output voltage at 1.5 A: 4.712 V; spec 4.850 … 5.150 V; outside spec');
+      expect(text).toContain('Ripple Output ripple: 31.5 mV; spec <= 50.0 mV; inside spec, outside guard band (accept <= 48.2 mV)');
+      // issue 8: the plan version is named, the run number printed once
+      expect(text).toContain('Plan OB-BK0503-EOL v3');
+      expect(text.split('4711').length - 1).toBe(1);
     }
   });
 
@@ -129,6 +141,52 @@ describe('renderRepairTag', () => {
     const shown = runs.find((r) => r.startsWith('Second-shift'));
     expect(shown).toMatch(/^Second-shift .*…$/);
     expect(runs.filter((r) => r.includes('module assembly'))).toEqual([]);
+  });
+
+  it('does not repeat the step name on each line of a step with several failures', async () => {
+    const many = [failure(), failure({ name: 'Output voltage at 3 A', quantity: 'voutV@3' })];
+    const text = pdfText(await renderRepairTag({ ...TAG, failures: many }, { compress: false }));
+    expect(text.split('Output at load').length - 1).toBe(1);
+  });
+
+  // Module widths as whole printer dots: 203 dpi = 8 dots/mm (0.125 mm a dot), 300 dpi = 0.0847 mm a dot
+  // (printer resolutions as sold; arithmetic). 72 PDF points make an inch (PDF 1.7, ISO 32000-1 §8.3.2.3).
+  describe('barcode in whole printer dots', () => {
+    const dots = (pt: number, dpi: number) => (pt * dpi) / 72;
+    const isWhole = (x: number) => Math.abs(x - Math.round(x)) < 1e-6;
+
+    it('chooses the whole number of dots nearest 0.33 mm, shrinking for long serials but never under 0.25 mm', () => {
+      const room = 94 * (72 / 25.4);
+      expect(moduleDots(203, 130, room).dots).toBe(3); // 0.375 mm
+      expect(moduleDots(300, 130, room).dots).toBe(4); // 0.339 mm
+      // 240 + 20 quiet modules × 0.375 mm = 97.5 mm > 94 mm: 2 dots (0.250 mm); at 300 dpi 4 dots (88.0 mm) fit
+      expect(moduleDots(203, 240, room).dots).toBe(2);
+      expect(moduleDots(300, 240, room).dots).toBe(4);
+      // 280 + 20 modules × 0.339 mm = 101.6 mm > 94 mm: 3 dots (0.254 mm)
+      expect(moduleDots(300, 280, room).dots).toBe(3);
+      for (const dpi of [203, 300] as PrinterDpi[]) {
+        for (const modules of [60, 130, 230, 400]) {
+          const m = moduleDots(dpi, modules, room);
+          expect(isWhole(dots(m.modulePt, dpi))).toBe(true);
+          expect((m.modulePt * 25.4) / 72).toBeGreaterThanOrEqual(0.25);
+        }
+      }
+    });
+
+    it('places the symbol on whole dots at 203 and at 300 dpi, and it still reads back', async () => {
+      for (const dpi of [203, 300] as PrinterDpi[]) {
+        const pdf = await renderRepairTag(TAG, { compress: false, dpi });
+        // pdfkit draws an image as "w 0 0 -h x y cm /I.. Do"
+        const m = /([\d.]+) 0 0 -?([\d.]+) ([\d.]+) ([\d.]+) cm\s*\/I\d+ Do/.exec(pdf.toString('latin1'));
+        expect(m).not.toBeNull();
+        const [width, , x] = [Number(m![1]), Number(m![2]), Number(m![3])];
+        const image = pdfRgbImages(pdf)[0];
+        const modules = image.width / 2;
+        expect(isWhole(dots(width / modules, dpi))).toBe(true);
+        expect(Math.abs(dots(x, dpi) - Math.round(dots(x, dpi)))).toBeLessThan(0.01);
+        expect(readBarcode(image).text).toBe(TAG.serial);
+      }
+    });
   });
 
   it('refuses a serial that cannot be barcoded', async () => {

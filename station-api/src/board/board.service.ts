@@ -3,9 +3,9 @@ import { Injectable } from '@nestjs/common';
 import { RunEngineService } from '../runs/run-engine.service';
 import { RunVerdict, TestRun } from '../runs/test-run.entity';
 import { Station } from '../stations/station.entity';
-import type { BoardCurrentRunDto, BoardEntryDto, BoardLastRunDto } from './dto/floor.dto';
+import type { BoardCurrentRunDto, BoardEntryDto, BoardLastRunDto } from './dto/board.dto';
 import { RunProgressTracker } from './run-progress.tracker';
-import { ShiftSummaryService } from './shift-summary.service';
+import { ShiftSummaryService } from '../shift/shift-summary.service';
 
 /** How many finished runs each board tile lists. */
 export const BOARD_LAST_RUNS = 8;
@@ -37,7 +37,7 @@ export class BoardService {
         fixture: s.fixture ? { code: s.fixture.code, calibrationDueAt: s.fixture.calibrationDueAt.toISOString() } : null,
         activeLot: s.activeLot ? { id: s.activeLot.id, code: s.activeLot.code, partNumber: s.activeLot.product.partNumber } : null,
         currentRun: status.currentRunId ? await this.currentRun(em, s.id, status.currentRunId) : null,
-        lastRuns: await this.lastRuns(em, s.id),
+        lastRuns: await this.lastRuns(em, s.id, new Date(shift.get(s.id)!.shiftStart)),
         shift: shift.get(s.id)!,
       });
     }
@@ -60,10 +60,11 @@ export class BoardService {
     };
   }
 
-  private async lastRuns(em: EntityManager, stationId: number): Promise<BoardLastRunDto[]> {
+  /** The station's latest finished runs of the shift running now: a wall screen must not show last week's. */
+  private async lastRuns(em: EntityManager, stationId: number, shiftStart: Date): Promise<BoardLastRunDto[]> {
     const runs = await em.find(
       TestRun,
-      { station: stationId, verdict: { $ne: RunVerdict.Running }, finishedAt: { $ne: null } },
+      { station: stationId, verdict: { $ne: RunVerdict.Running }, finishedAt: { $ne: null, $gte: shiftStart } },
       { populate: ['unit'], orderBy: { finishedAt: 'desc', id: 'desc' }, limit: BOARD_LAST_RUNS },
     );
     return runs.map((r) => ({
