@@ -3,7 +3,7 @@ import { ConfigService } from '@nestjs/config';
 import { PassportStrategy } from '@nestjs/passport';
 import { ExtractJwt, Strategy } from 'passport-jwt';
 import type { AuthUser } from '../common/decorators/current-user.decorator';
-import type { EnvironmentVariables } from '../config/env.validation';
+import { EnvironmentVariables, requireJwtSecret } from '../config/env.validation';
 import { AuthService, TokenPayload } from './auth.service';
 
 /** Bearer-token strategy used by JwtAuthGuard. */
@@ -15,7 +15,7 @@ export class JwtStrategy extends PassportStrategy(Strategy, 'jwt') {
   ) {
     super({
       jwtFromRequest: ExtractJwt.fromAuthHeaderAsBearerToken(),
-      secretOrKey: config.get('JWT_SECRET', { infer: true }),
+      secretOrKey: requireJwtSecret({ JWT_SECRET: config.get('JWT_SECRET', { infer: true }) }),
       ignoreExpiration: false,
       algorithms: ['HS256'],
     });
