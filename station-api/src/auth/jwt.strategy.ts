@@ -4,7 +4,7 @@ import { PassportStrategy } from '@nestjs/passport';
 import { ExtractJwt, Strategy } from 'passport-jwt';
 import type { AuthUser } from '../common/decorators/current-user.decorator';
 import { EnvironmentVariables, requireJwtSecret } from '../config/env.validation';
-import { AuthService, TokenPayload } from './auth.service';
+import { AuthService, BoardTokenPayload, TokenPayload } from './auth.service';
 
 /** Bearer-token strategy used by JwtAuthGuard. */
 @Injectable()
@@ -22,7 +22,7 @@ export class JwtStrategy extends PassportStrategy(Strategy, 'jwt') {
   }
 
   /** Signature and expiry are already checked; this re-checks the account and reads its current roles. */
-  validate(payload: TokenPayload): Promise<AuthUser> {
-    return this.auth.loadActiveUser(payload.sub);
+  validate(payload: TokenPayload | BoardTokenPayload): Promise<AuthUser> {
+    return this.auth.principalOf(payload);
   }
 }
