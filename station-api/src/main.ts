@@ -4,7 +4,6 @@ import { NestFactory } from '@nestjs/core';
 import { configureApp } from './app.setup';
 import { demoSecret } from './config/demo-secret';
 import { EnvironmentVariables, loadEnv, requireJwtSecret } from './config/env.validation';
-import { migrateDatabase } from './config/migrate-on-start';
 
 async function bootstrap(): Promise<void> {
   let env = loadEnv();
@@ -17,6 +16,8 @@ async function bootstrap(): Promise<void> {
   }
   requireJwtSecret(env);
   // before the app exists, so every module's start-up hook (crash recovery among them) sees a migrated database
+  // imported only now: the ORM config reads the settings as it loads
+  const { migrateDatabase } = await import('./config/migrate-on-start');
   const applied = await migrateDatabase(env.DATABASE_PATH);
   if (applied.length > 0) Logger.log(`Applied ${applied.length} database migration(s): ${applied.join(', ')}`, 'Bootstrap');
   // loaded after the check: the module reads the settings as it loads, and a bad one must end in the
