@@ -39,8 +39,9 @@ const WRONG_VALUES: [string, string][] = [
 ];
 
 /**
- * Malformed requests generated across every write route, with the UI served (UI_DIST set, as npm start
- * sets it): 0 × 5xx, a message on every 4xx, and nothing written (row count and content hash of every table).
+ * Malformed requests generated across every write route, with UI_DIST set as npm start sets it (the
+ * real server process serving the UI is checked in startup.e2e-spec.ts): 0 × 5xx, a message on every 4xx,
+ * and nothing written (row count and content hash of every table).
  */
 describe('malformed requests against every write route', () => {
   let t: TestApp;

@@ -96,18 +96,28 @@ describe('server start-up', () => {
 
   it('migrates a fresh database path itself before answering, and keeps a demo secret in the data folder', async () => {
     const d = join(tmp(), 'new', 'folder');
+    const ui = tmp();
+    writeFileSync(join(ui, 'index.html'), '<!doctype html><title>station ui</title>');
     const port = await freePort();
     let login = 0;
+    const seen: Record<string, number | string> = {};
     const r = await startServer(
-      { RAILWRIGHT_DEMO: '1', DATABASE_PATH: join(d, 'db.sqlite'), PORT: String(port) },
+      { RAILWRIGHT_DEMO: '1', DATABASE_PATH: join(d, 'db.sqlite'), PORT: String(port), UI_DIST: ui },
       (out) => out.includes('listening on'),
       async () => {
         // an unmigrated database answered 500 here; a migrated, empty one refuses the sign-in
         const res = await fetch(`http://127.0.0.1:${port}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ username: 'nobody', password: 'wrong-pass' }) });
         login = res.status;
+        // with the UI served, bad bodies used to answer 404 "Cannot POST"
+        const post = (body: string) => fetch(`http://127.0.0.1:${port}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body });
+        seen.invalid = (await post('{"username": ')).status;
+        seen.tooBig = (await post(JSON.stringify({ username: 'x'.repeat(200_000) }))).status;
+        seen.unknownApi = (await fetch(`http://127.0.0.1:${port}/api/nothing-here`)).status;
+        seen.ui = await (await fetch(`http://127.0.0.1:${port}/stations/1`)).text();
       },
     );
     expect(login).toBe(401);
+    expect(seen).toMatchObject({ invalid: 400, tooBig: 413, unknownApi: 404, ui: expect.stringContaining('station ui') });
     expect(r.output).toMatch(/Applied \d+ database migration/);
     expect(r.output).toMatch(/Only this computer can reach the server \(HOST=127.0.0.1\)/);
     const secretFile = join(d, 'jwt-secret');
