@@ -5,7 +5,13 @@ import { ensureNodeModules, log, root, run, spawn } from './lib.mjs';
 ensureNodeModules();
 run('npm', ['run', 'build', '-w', 'mock-fixture']);
 run('npm', ['run', 'build', '-w', 'station-api']);
-const env = { ...process.env, DATABASE_PATH: resolve(root, process.env.DATABASE_PATH ?? 'data/railwright.sqlite') };
+const env = {
+  ...process.env,
+  DATABASE_PATH: resolve(root, process.env.DATABASE_PATH ?? 'data/railwright.sqlite'),
+  // demo secret in the data folder; Vite's dev server (another origin) may open sockets
+  RAILWRIGHT_DEMO: '1',
+  CORS_ORIGINS: process.env.CORS_ORIGINS ?? 'http://localhost:5173',
+};
 run('node', ['station-api/dist/database/seed-cli.js'], { env });
 
 const children = [

@@ -10,6 +10,10 @@ const env = {
   PORT: String(port),
   DATABASE_PATH: dbPath,
   UI_DIST: resolve(root, 'station-ui/dist'),
+  // demo mode: without JWT_SECRET the server keeps a random secret in the data folder (never in the repo)
+  RAILWRIGHT_DEMO: '1',
+  // this computer only, unless asked otherwise; the server prints how to open it to the plant network
+  HOST: process.env.HOST ?? '127.0.0.1',
   // keep the console readable for the URL and sign-ins; LOG_LEVEL=log shows every route at start
   LOG_LEVEL: process.env.LOG_LEVEL ?? 'warn',
 };
@@ -22,7 +26,7 @@ run('node', ['station-api/dist/database/seed-cli.js'], { env });
 log('Starting the station server...');
 const server = spawn('node', ['station-api/dist/main.js'], { cwd: root, env, stdio: 'inherit' });
 
-const url = `http://localhost:${port}`;
+const url = `http://${env.HOST === '0.0.0.0' || env.HOST === '::' ? 'localhost' : env.HOST}:${port}`;
 const started = Date.now();
 const poll = setInterval(async () => {
   try {
@@ -41,6 +45,9 @@ const poll = setInterval(async () => {
     admin    / admin-demo       (users, audit log)
 
   Simulated fixtures FX-101..FX-103 are attached to stations EOL-1..EOL-3.
+  ${env.HOST.startsWith('127.') || env.HOST === 'localhost'
+    ? 'Only this computer can open it. For the plant network: HOST=0.0.0.0 JWT_SECRET=<32+ random bytes> npm start'
+    : `Listening on ${env.HOST}: other computers on the network can open it.`}
   Ctrl-C stops the server.
 `);
   } catch {

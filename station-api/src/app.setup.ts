@@ -1,7 +1,11 @@
 import { BadRequestException, INestApplication, ValidationError, ValidationPipe } from '@nestjs/common';
 import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
 import compression from 'compression';
+import type { Express } from 'express';
+import helmet from 'helmet';
 import { ApiExceptionFilter } from './common/filters/http-exception.filter';
+import { inspectJsonBodies, parseJsonBodies, refuseControlCharactersInUrl, requireJsonBodies } from './common/http/request-guards';
+import { allowedOrigins } from './config/origins';
 
 function flatten(errors: ValidationError[], parent = ''): { field: string; problems: string[] }[] {
   return errors.flatMap((e) => {
@@ -12,7 +16,22 @@ function flatten(errors: ValidationError[], parent = ''): { field: string; probl
 }
 
 /** Global pipes, filter, prefix and OpenAPI; used by main.ts and by the e2e tests alike. */
-export function configureApp(app: INestApplication): void {
+export function configureApp(app: INestApplication, options: { corsOrigins?: string } = {}): void {
+  (app.getHttpAdapter().getInstance() as Express).disable('x-powered-by');
+  app.use(
+    helmet({
+      // the station server speaks plain HTTP on the plant network: upgrading would break every asset,
+      // and HSTS would pin browsers to an HTTPS port that does not exist
+      contentSecurityPolicy: { directives: { upgradeInsecureRequests: null } },
+      strictTransportSecurity: false,
+    }),
+  );
+  const origins = allowedOrigins(options.corsOrigins ?? process.env.CORS_ORIGINS ?? '');
+  // same origin needs no CORS; only the configured origins get CORS headers
+  if (origins.length > 0) app.enableCors({ origin: origins, credentials: false });
+  // bodies are parsed and checked here, before Nest's own parser (registered at init) and before the
+  // static UI, so malformed bodies are answered in the API's error shape whatever serves the UI
+  app.use(refuseControlCharactersInUrl, requireJsonBodies, parseJsonBodies, inspectJsonBodies);
   // gzip for the UI's JS/CSS and the API's JSON. Registered before the routes and the static UI so it wraps
   // both; the default filter leaves PDFs and images alone (already compressed), and socket.io answers on the
   // HTTP server before Express sees the request, so its traffic is untouched.

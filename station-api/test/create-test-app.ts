@@ -19,7 +19,7 @@ export interface TestAppOptions {
 }
 
 /** The JWT secret the test apps sign with (to forge or pre-date tokens in tests). */
-export const TEST_JWT_SECRET = 'test-secret-at-least-16-chars';
+export const TEST_JWT_SECRET = 'test-secret-at-least-32-bytes-long-0123456789';
 
 /**
  * Boots the real Nest application on a fresh temporary SQLite file: migrations applied, demo plant seeded

@@ -1,12 +1,12 @@
 import { Body, Controller, Get, HttpCode, Inject, Post, UseGuards } from '@nestjs/common';
-import { ApiBearerAuth, ApiOkResponse, ApiOperation, ApiTags, ApiTooManyRequestsResponse, ApiUnauthorizedResponse } from '@nestjs/swagger';
+import { ApiBearerAuth, ApiCreatedResponse, ApiOkResponse, ApiOperation, ApiTags, ApiTooManyRequestsResponse, ApiUnauthorizedResponse } from '@nestjs/swagger';
 import { AuthUser, CurrentUser } from '../common/decorators/current-user.decorator';
 import { Public } from '../common/decorators/public.decorator';
 import { Roles } from '../common/decorators/roles.decorator';
 import { UserDto } from '../users/dto/user.dto';
 import { ROLES } from '../users/user.entity';
 import { AuthService, TOKEN_LIFETIME_S } from './auth.service';
-import { LoginDto, LoginResponseDto } from './dto/login.dto';
+import { BoardTokenDto, BoardTokenRequestDto, LoginDto, LoginResponseDto } from './dto/login.dto';
 import { LoginThrottlerGuard } from './login-throttler.guard';
 
 @ApiTags('auth')
@@ -36,5 +36,15 @@ export class AuthController {
   @ApiOkResponse({ type: UserDto })
   me(@CurrentUser() user: AuthUser): Promise<UserDto> {
     return this.auth.me(user.id);
+  }
+
+  @Post('board-token')
+  @Roles('admin')
+  @HttpCode(201)
+  @ApiBearerAuth()
+  @ApiOperation({ summary: 'Issue a board display token (30 days) for a wall screen; it opens the board only' })
+  @ApiCreatedResponse({ type: BoardTokenDto })
+  boardToken(@Body() dto: BoardTokenRequestDto, @CurrentUser() actor: AuthUser): Promise<BoardTokenDto> {
+    return this.auth.issueBoardToken(dto.label.trim(), actor);
   }
 }

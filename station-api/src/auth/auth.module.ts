@@ -6,7 +6,7 @@ import { PassportModule } from '@nestjs/passport';
 import { ThrottlerModule } from '@nestjs/throttler';
 import { JwtAuthGuard } from '../common/guards/jwt-auth.guard';
 import { RolesGuard } from '../common/guards/roles.guard';
-import type { EnvironmentVariables } from '../config/env.validation';
+import { EnvironmentVariables, requireJwtSecret } from '../config/env.validation';
 import { AuthController } from './auth.controller';
 import { AuthService, TOKEN_LIFETIME_S } from './auth.service';
 import { JwtStrategy } from './jwt.strategy';
@@ -21,7 +21,7 @@ type Config = ConfigService<EnvironmentVariables, true>;
     JwtModule.registerAsync({
       inject: [ConfigService],
       useFactory: (config: Config) => ({
-        secret: config.get('JWT_SECRET', { infer: true }),
+        secret: requireJwtSecret({ JWT_SECRET: config.get('JWT_SECRET', { infer: true }) }),
         signOptions: { expiresIn: tokenLifetimeS(config.get('JWT_EXPIRES_IN', { infer: true })), algorithm: 'HS256' },
         verifyOptions: { algorithms: ['HS256'] },
       }),

@@ -17,6 +17,26 @@ export interface TokenPayload {
   roles: Role[];
 }
 
+/** What a board display token carries: no user, only the board scope and the label it was issued for. */
+export interface BoardTokenPayload {
+  scope: 'board';
+  label: string;
+  /** id of the admin who issued it (for the record; deactivating them does not revoke the token) */
+  issuedBy: number;
+}
+
+/** Board display links last 30 days; changing JWT_SECRET revokes them all. */
+export const BOARD_TOKEN_LIFETIME_S = 30 * 86_400;
+
+/** The principal a board display token stands for. */
+export function boardPrincipal(label: string): AuthUser {
+  return { id: 0, username: 'board-display', displayName: label, roles: [], scope: 'board' };
+}
+
+function isBoardPayload(p: unknown): p is BoardTokenPayload {
+  return (p as { scope?: unknown } | null)?.scope === 'board';
+}
+
 /** Injection token for the token lifetime in seconds (from JWT_EXPIRES_IN). */
 export const TOKEN_LIFETIME_S = Symbol('TOKEN_LIFETIME_S');
 
@@ -78,6 +98,22 @@ export class AuthService {
     return toAuthUser(user);
   }
 
+  /** Issues a board display token (audited). */
+  async issueBoardToken(label: string, actor: AuthUser): Promise<{ token: string; expiresAt: string }> {
+    const payload: BoardTokenPayload = { scope: 'board', label, issuedBy: actor.id };
+    const token = await this.jwt.signAsync(payload, { expiresIn: BOARD_TOKEN_LIFETIME_S });
+    const expiresAt = new Date(Date.now() + BOARD_TOKEN_LIFETIME_S * 1000).toISOString();
+    await this.audit.record({ actor: actor.id, action: 'auth.board_token_issued', entityType: 'board_display', reason: label, after: { label, expiresAt } });
+    return { token, expiresAt };
+  }
+
+  /** The principal a verified token names: a board display, or the (active) user re-read from the database. */
+  principalOf(payload: TokenPayload | BoardTokenPayload): Promise<AuthUser> {
+    if (isBoardPayload(payload)) return Promise.resolve(boardPrincipal(String(payload.label ?? '')));
+    if (typeof payload.sub !== 'number') throw new UnauthorizedException(describeTokenProblem(undefined));
+    return this.loadActiveUser(payload.sub);
+  }
+
   async me(id: number): Promise<UserDto> {
     const user = await this.em.fork().findOneOrFail(User, { id });
     return toUserDto(user);
@@ -89,15 +125,15 @@ export class AuthService {
    * @throws UnauthorizedException with a readable message when the token is missing, forged, expired
    *   or names an inactive account
    */
-  async verifyAccessToken(token: string | undefined | null): Promise<AuthUser> {
+  async verifyAccessToken(token: string | undefined | null): Promise<AuthUser & { expiresAtMs: number }> {
     if (!token) throw new UnauthorizedException(describeTokenProblem({ message: 'No auth token' }));
-    let payload: TokenPayload;
+    let payload: (TokenPayload | BoardTokenPayload) & { exp?: number };
     try {
-      payload = await this.jwt.verifyAsync<TokenPayload>(token);
+      payload = await this.jwt.verifyAsync<(TokenPayload | BoardTokenPayload) & { exp?: number }>(token);
     } catch (err) {
       throw new UnauthorizedException(describeTokenProblem(err));
     }
-    if (typeof payload.sub !== 'number') throw new UnauthorizedException(describeTokenProblem(undefined));
-    return this.loadActiveUser(payload.sub);
+    if (typeof payload.exp !== 'number') throw new UnauthorizedException(describeTokenProblem(undefined));
+    return { ...(await this.principalOf(payload)), expiresAtMs: payload.exp * 1000 };
   }
 }

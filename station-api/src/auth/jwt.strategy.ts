@@ -3,8 +3,8 @@ import { ConfigService } from '@nestjs/config';
 import { PassportStrategy } from '@nestjs/passport';
 import { ExtractJwt, Strategy } from 'passport-jwt';
 import type { AuthUser } from '../common/decorators/current-user.decorator';
-import type { EnvironmentVariables } from '../config/env.validation';
-import { AuthService, TokenPayload } from './auth.service';
+import { EnvironmentVariables, requireJwtSecret } from '../config/env.validation';
+import { AuthService, BoardTokenPayload, TokenPayload } from './auth.service';
 
 /** Bearer-token strategy used by JwtAuthGuard. */
 @Injectable()
@@ -15,14 +15,14 @@ export class JwtStrategy extends PassportStrategy(Strategy, 'jwt') {
   ) {
     super({
       jwtFromRequest: ExtractJwt.fromAuthHeaderAsBearerToken(),
-      secretOrKey: config.get('JWT_SECRET', { infer: true }),
+      secretOrKey: requireJwtSecret({ JWT_SECRET: config.get('JWT_SECRET', { infer: true }) }),
       ignoreExpiration: false,
       algorithms: ['HS256'],
     });
   }
 
   /** Signature and expiry are already checked; this re-checks the account and reads its current roles. */
-  validate(payload: TokenPayload): Promise<AuthUser> {
-    return this.auth.loadActiveUser(payload.sub);
+  validate(payload: TokenPayload | BoardTokenPayload): Promise<AuthUser> {
+    return this.auth.principalOf(payload);
   }
 }

@@ -20,3 +20,12 @@ describe('tokenLifetimeS', () => {
     expect(() => tokenLifetimeS('0')).toThrow(/longer than zero/);
   });
 });
+
+describe('tokenLifetimeS bound', () => {
+  it('refuses lifetimes over 7 days and absurd numbers that would never expire', () => {
+    // 7 d = 604 800 s (SI / ISO 80000-3 day of 86 400 s)
+    expect(tokenLifetimeS('7d')).toBe(604_800);
+    expect(() => tokenLifetimeS('8d')).toThrow(/7 days/);
+    expect(() => tokenLifetimeS('99999999999999999999d')).toThrow(/JWT_EXPIRES_IN/);
+  });
+});

@@ -1,24 +1,66 @@
 import { plainToInstance, Type } from 'class-transformer';
-import { IsIn, IsInt, IsOptional, IsString, Matches, Max, Min, MinLength, validateSync } from 'class-validator';
+import {
+  IsIn, IsInt, IsOptional, IsString, Matches, Max, Min, Validate, ValidationArguments, ValidatorConstraint, ValidatorConstraintInterface, validateSync,
+} from 'class-validator';
+import { MAX_TOKEN_LIFETIME_S, tokenLifetimeS } from '../auth/token-lifetime';
+import { databasePathProblem } from './database-path';
 import { readSimulatorConfigFile } from './fixture-sim.config';
+
+/** 32 bytes = 256 bits, the HMAC-SHA256 output size; RFC 7518 §3.2 requires a key of at least that size for HS256. */
+export const JWT_SECRET_MIN_BYTES = 32;
+
+@ValidatorConstraint({ name: 'minBytes' })
+class MinBytes implements ValidatorConstraintInterface {
+  validate(value: unknown, args: ValidationArguments): boolean {
+    return typeof value === 'string' && (value === '' || Buffer.byteLength(value, 'utf8') >= (args.constraints[0] as number));
+  }
+}
+
+@ValidatorConstraint({ name: 'lifetimeBound' })
+class LifetimeBound implements ValidatorConstraintInterface {
+  validate(value: unknown): boolean {
+    try {
+      return typeof value === 'string' && tokenLifetimeS(value) <= MAX_TOKEN_LIFETIME_S;
+    } catch {
+      return false;
+    }
+  }
+}
 
 /** Every environment variable the server reads. Documented in .env.example at the repo root. */
 export class EnvironmentVariables {
   @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(65535)
   PORT: number = 3000;
 
-  @IsOptional() @IsString()
-  HOST: string = '0.0.0.0';
+  /** Address to listen on. 127.0.0.1 keeps the server on this computer; 0.0.0.0 opens it to the plant network. */
+  @IsOptional() @IsString() @Matches(/^[0-9A-Za-z.:_-]{1,253}$/, { message: 'HOST must be an IP address or host name, e.g. 127.0.0.1 or 0.0.0.0' })
+  HOST: string = '127.0.0.1';
+
+  /** '1' under `npm start` / `npm run dev`: a random signing secret is kept in the data folder when JWT_SECRET is not set. */
+  @IsOptional() @IsIn(['0', '1', ''], { message: "RAILWRIGHT_DEMO must be '1' (demo) or '0'" })
+  RAILWRIGHT_DEMO: '0' | '1' | '' = '';
+
+  /** Origins (scheme://host:port, comma separated) allowed to call the API and open sockets from a browser; empty: same origin only. */
+  @IsOptional() @IsString() @Matches(/^\s*$|^\s*https?:\/\/[^\s,]+(\s*,\s*https?:\/\/[^\s,]+)*\s*$/, {
+    message: 'CORS_ORIGINS must be origins such as http://10.0.0.5:3000, separated by commas (or empty)',
+  })
+  CORS_ORIGINS: string = '';
 
   @IsOptional() @IsString()
   DATABASE_PATH: string = './data/railwright.sqlite';
 
-  @IsOptional() @IsString() @MinLength(16, { message: 'JWT_SECRET must be at least 16 characters' })
-  JWT_SECRET: string = 'railwright-demo-secret-change-me';
+  /**
+   * Signs the sign-in tokens. There is no built-in value: the server refuses to start without one
+   * (requireJwtSecret), except in demo mode where main.ts keeps a random one in the data folder.
+   */
+  @IsOptional() @IsString()
+  @Validate(MinBytes, [JWT_SECRET_MIN_BYTES], { message: `JWT_SECRET must be at least ${JWT_SECRET_MIN_BYTES} bytes long (e.g. the output of: openssl rand -hex 32)` })
+  JWT_SECRET: string = '';
 
   /** Token lifetime, e.g. 12h (one shift), 30m, 3600 (seconds) */
   @IsOptional() @IsString()
-  @Matches(/^\d+(s|m|h|d)?$/, { message: 'JWT_EXPIRES_IN must be a whole number of seconds or a number followed by s, m, h or d (e.g. 12h)' })
+  @Matches(/^\d{1,9}(s|m|h|d)?$/, { message: 'JWT_EXPIRES_IN must be a whole number of seconds or a number followed by s, m, h or d (e.g. 12h)' })
+  @Validate(LifetimeBound, { message: `JWT_EXPIRES_IN must be between 1 second and ${MAX_TOKEN_LIFETIME_S / 86_400} days (7d)` })
   JWT_EXPIRES_IN: string = '12h';
 
   /** Folder of the built UI to serve; empty to serve none */
@@ -67,6 +109,10 @@ export function validateEnv(raw: Record<string, unknown>): EnvironmentVariables 
       lines.push(`  FIXTURE_SIM_CONFIG: ${(err as Error).message}`);
     }
   }
+  if (!errors.some((e) => e.property === 'DATABASE_PATH')) {
+    const problem = databasePathProblem(env.DATABASE_PATH);
+    if (problem) lines.push(`  DATABASE_PATH: ${problem}`);
+  }
   if (lines.length > 0) throw new Error(`Configuration is not valid:\n${lines.join('\n')}`);
   return env;
 }
@@ -74,4 +120,17 @@ export function validateEnv(raw: Record<string, unknown>): EnvironmentVariables 
 /** Reads and validates process.env once; the only place the environment is read. */
 export function loadEnv(): EnvironmentVariables {
   return validateEnv(process.env as Record<string, unknown>);
+}
+
+/**
+ * The signing secret, or a one-line refusal. Kept out of validateEnv so the seeder and the migration CLI,
+ * which sign nothing, run without it; the server (main.ts) and the auth module call it.
+ */
+export function requireJwtSecret(env: Pick<EnvironmentVariables, 'JWT_SECRET'>): string {
+  if (!env.JWT_SECRET) {
+    throw new Error(
+      `JWT_SECRET is not set: the server will not sign tokens with a known value. Set JWT_SECRET to at least ${JWT_SECRET_MIN_BYTES} random bytes (openssl rand -hex 32), or start the demo with npm start.`,
+    );
+  }
+  return env.JWT_SECRET;
 }

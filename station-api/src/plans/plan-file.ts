@@ -133,7 +133,9 @@ export function parsePlanText(text: string, file: string, opts: PlanCheckOptions
     data = doc.toJS({ maxAliasCount: MAX_ALIAS_COUNT });
   } catch (err) {
     // the yaml package throws a ReferenceError when aliases would expand past the limit (an "alias bomb")
+    // and when an alias names no anchor set before it
     if (!(err instanceof ReferenceError)) throw err;
+    const unresolved = /unresolved alias/i.test(err.message);
     return {
       issues: [
         {
@@ -141,7 +143,9 @@ export function parsePlanText(text: string, file: string, opts: PlanCheckOptions
           path: '(syntax)',
           line: 0,
           column: 0,
-          message: `YAML aliases expand too far (${err.message}); a plan file needs few or no aliases (*name), write the values out`,
+          message: unresolved
+            ? `YAML alias without an anchor (${err.message}); set &name before using *name, or write the value out`
+            : `YAML aliases expand too far (${err.message}); a plan file needs few or no aliases (*name), write the values out`,
         },
       ],
     };

@@ -46,7 +46,7 @@ export class PlansController {
   }
 
   @Post('plans/:id/versions')
-  @Roles('engineer')
+  @Roles('engineer', 'admin')
   @ApiOperation({ summary: 'Create a draft version (checked like a plan file)' })
   @ApiCreatedResponse({ type: PlanVersionDto })
   createDraft(@Param('id', ParseIntPipe) id: number, @Body() dto: CreatePlanVersionDto, @CurrentUser() actor: AuthUser): Promise<PlanVersionDto> {
@@ -63,7 +63,7 @@ export class PlansController {
 
   @Post('plan-versions/:id/release')
   @HttpCode(200)
-  @Roles('engineer')
+  @Roles('engineer', 'admin')
   @ApiOperation({ summary: 'Release a draft; the previously released version becomes superseded' })
   @ApiOkResponse({ type: PlanVersionDto })
   release(@Param('id', ParseIntPipe) id: number, @Body() dto: ReleasePlanVersionDto, @CurrentUser() actor: AuthUser): Promise<PlanVersionDto> {

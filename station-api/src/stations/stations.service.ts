@@ -1,5 +1,5 @@
 import { EntityManager } from '@mikro-orm/sqlite';
-import { ConflictException, Injectable, NotFoundException } from '@nestjs/common';
+import { ConflictException, ForbiddenException, Injectable, NotFoundException } from '@nestjs/common';
 import { AuditService } from '../audit/audit.service';
 import type { AuthUser } from '../common/decorators/current-user.decorator';
 import { Fixture } from '../fixtures/fixture.entity';
@@ -7,6 +7,7 @@ import { FixturesService, toFixtureDto } from '../fixtures/fixtures.service';
 import { LotState } from '../lots/lot.entity';
 import { LotsService } from '../lots/lots.service';
 import type { CreateStationDto, StationDto, StationState, UpdateStationDto } from './dto/station.dto';
+import type { Role } from '../users/user.entity';
 import { Station } from './station.entity';
 import { staticBlockReasons } from './station-readiness';
 
@@ -14,6 +15,9 @@ import { staticBlockReasons } from './station-readiness';
 export type StationStatusSource = (
   station: Station,
 ) => Promise<{ state: StationState; reasons: string[] } | undefined> | { state: StationState; reasons: string[] } | undefined;
+
+/** Roles that may assign or clear a station's fixture (docs/security.md). */
+export const FIXTURE_ASSIGNERS: readonly Role[] = ['engineer', 'admin'];
 
 @Injectable()
 export class StationsService {
@@ -85,6 +89,13 @@ export class StationsService {
 
   /** Sets or clears the active lot (must be open) and the fixture (active, not held by another station). */
   async update(id: number, dto: UpdateStationDto, actor: AuthUser): Promise<StationDto> {
+    // quality may set the station's lot, but moving fixtures between stations is an engineering change
+    if (dto.fixtureId !== undefined && !FIXTURE_ASSIGNERS.some((r) => actor.roles.includes(r))) {
+      throw new ForbiddenException({
+        message: `Only ${FIXTURE_ASSIGNERS.join(' or ')} may change a station's fixture; you are signed in as ${actor.roles.join(', ')}.`,
+        details: { code: 'missing_role', required: FIXTURE_ASSIGNERS },
+      });
+    }
     const s = await this.getEntity(id);
     const before = summary(s);
     if (dto.activeLotId !== undefined) {

@@ -4,6 +4,7 @@ import { hash } from 'bcryptjs';
 import { AuditService } from '../audit/audit.service';
 import type { AuthUser } from '../common/decorators/current-user.decorator';
 import type { CreateUserDto, ResetPasswordDto, UpdateUserDto, UserDto } from './dto/user.dto';
+import { UserAccessEvents } from './user-access.events';
 import { User } from './user.entity';
 
 /** bcrypt cost factor: 2^10 rounds, the bcryptjs default (about 70 ms per hash on the station PC). */
@@ -33,6 +34,7 @@ export class UsersService {
   constructor(
     private readonly em: EntityManager,
     private readonly audit: AuditService,
+    private readonly access: UserAccessEvents,
   ) {}
 
   async list(): Promise<UserDto[]> {
@@ -72,6 +74,8 @@ export class UsersService {
       await this.audit.record({ actor: actor.id, action: actionFor(before, after), entityType: 'user', entityId: user.id, before, after }, this.em);
     }
     await this.em.flush();
+    // open sockets re-check their rights now (deactivation and role loss end them)
+    if (before.active !== after.active || JSON.stringify(before.roles) !== JSON.stringify(after.roles)) this.access.changed(user.id);
     return toUserDto(user);
   }
 

@@ -21,7 +21,7 @@ const READY_TIMEOUT_MS = 60_000;
 /** Grace period after SIGTERM for the server to put fixtures in a safe state and close the database. */
 const STOP_GRACE_MS = 5_000;
 
-export const E2E_JWT_SECRET = 'e2e-secret-0123456789';
+export const E2E_JWT_SECRET = 'e2e-secret-0123456789-at-least-32-bytes';
 
 /** Asks the OS for a port nobody uses (port 0), then frees it for the server. */
 export function freePort(): Promise<number> {

@@ -1,26 +1,27 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
-import { IsInt, IsOptional, IsString, Max, MaxLength, Min } from 'class-validator';
+import { IsInt, IsString, Max, MaxLength, Min } from 'class-validator';
+import { Optional } from '../../common/validation/presence';
 
 export class AuditQueryDto {
   @ApiPropertyOptional({ example: 'user' })
-  @IsOptional() @IsString() @MaxLength(64)
+  @Optional() @IsString() @MaxLength(64)
   entityType?: string;
 
   @ApiPropertyOptional({ example: '3' })
-  @IsOptional() @IsString() @MaxLength(64)
+  @Optional() @IsString() @MaxLength(64)
   entityId?: string;
 
   @ApiPropertyOptional({ example: 'auth.login_failed' })
-  @IsOptional() @IsString() @MaxLength(64)
+  @Optional() @IsString() @MaxLength(64)
   action?: string;
 
   @ApiPropertyOptional({ default: 100, minimum: 1, maximum: 500 })
-  @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(500)
+  @Optional() @Type(() => Number) @IsInt() @Min(1) @Max(500)
   limit?: number;
 
   @ApiPropertyOptional({ default: 0, minimum: 0 })
-  @IsOptional() @Type(() => Number) @IsInt() @Min(0)
+  @Optional() @Type(() => Number) @IsInt() @Min(0)
   offset?: number;
 }
 

@@ -1,5 +1,5 @@
 import { ApiProperty } from '@nestjs/swagger';
-import { IsNotEmpty, IsString, MaxLength } from 'class-validator';
+import { IsNotEmpty, IsString, MaxLength, MinLength } from 'class-validator';
 import { UserDto } from '../../users/dto/user.dto';
 
 export class LoginDto {
@@ -22,4 +22,18 @@ export class LoginResponseDto {
 
   @ApiProperty({ type: UserDto })
   user!: UserDto;
+}
+
+export class BoardTokenRequestDto {
+  @ApiProperty({ example: 'Hall 2 wall screen', description: 'where the board is shown; kept in the audit trail' })
+  @IsString() @MinLength(3, { message: 'label must say where the board is shown (at least 3 characters)' }) @MaxLength(80)
+  label!: string;
+}
+
+export class BoardTokenDto {
+  @ApiProperty({ description: 'JWT with scope "board": opens GET /api/board and the board room of the socket only' })
+  token!: string;
+
+  @ApiProperty({ description: 'ISO 8601, UTC; 30 days after issue' })
+  expiresAt!: string;
 }

@@ -7,6 +7,8 @@ export interface AuthUser {
   username: string;
   displayName: string;
   roles: Role[];
+  /** Set for a board display token: it opens GET /api/board and the board room only (no user behind it) */
+  scope?: 'board';
 }
 
 export const CurrentUser = createParamDecorator((_data: unknown, ctx: ExecutionContext): AuthUser => {

@@ -4,6 +4,7 @@ import type { Role } from '../../users/user.entity';
 import type { AuthUser } from '../decorators/current-user.decorator';
 import { IS_PUBLIC_KEY } from '../decorators/public.decorator';
 import { ROLES_KEY } from '../decorators/roles.decorator';
+import { boardDisplayMayUse } from '../route-policy';
 
 /**
  * The decision itself, kept apart from Nest so it can be tested directly.
@@ -36,7 +37,16 @@ export class RolesGuard implements CanActivate {
     const targets = [context.getHandler(), context.getClass()];
     if (this.reflector.getAllAndOverride<boolean>(IS_PUBLIC_KEY, targets)) return true;
     const required = this.reflector.getAllAndOverride<Role[] | undefined>(ROLES_KEY, targets);
-    checkRoles(required, context.switchToHttp().getRequest().user as AuthUser | undefined);
+    const req = context.switchToHttp().getRequest<{ user?: AuthUser; method: string; route?: { path?: string } }>();
+    if (req.user?.scope === 'board') {
+      // a wall-screen token opens the board and nothing else, whatever @Roles says
+      if (boardDisplayMayUse(req.method, req.route?.path)) return true;
+      throw new ForbiddenException({
+        message: 'A board display link opens the production board only. Sign in to use the rest of Railwright.',
+        details: { code: 'board_display_only' },
+      });
+    }
+    checkRoles(required, req.user);
     return true;
   }
 }

@@ -1,8 +1,9 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
-import { IsEnum, IsInt, IsOptional, IsString, Matches, Max, Min } from 'class-validator';
+import { IsEnum, IsInt, IsString, Matches, Max, Min } from 'class-validator';
 import { UnitState } from '../../units/unit.entity';
 import { LotState } from '../lot.entity';
+import { Optional } from '../../common/validation/presence';
 
 /** Most units one lot may register in one request; a sanity bound on input, not a process limit. */
 export const MAX_LOT_QUANTITY = 10_000;
@@ -39,10 +40,10 @@ export class LotDetailDto extends LotDto {
 }
 
 export class LotQueryDto {
-  @ApiPropertyOptional() @IsOptional() @Type(() => Number) @IsInt() @Min(1) productId?: number;
+  @ApiPropertyOptional() @Optional() @Type(() => Number) @IsInt() @Min(1) productId?: number;
 
   @ApiPropertyOptional({ enum: LotState })
-  @IsOptional() @IsEnum(LotState, { message: `state must be one of ${Object.values(LotState).join(', ')}` })
+  @Optional() @IsEnum(LotState, { message: `state must be one of ${Object.values(LotState).join(', ')}` })
   state?: LotState;
 }
 
@@ -58,6 +59,6 @@ export class CreateLotDto {
   plannedQuantity!: number;
 
   @ApiPropertyOptional({ description: "first 5-digit sequence of this week's serials; default: next free one", minimum: 1, maximum: 99_999 })
-  @IsOptional() @IsInt() @Min(1) @Max(99_999)
+  @Optional() @IsInt() @Min(1) @Max(99_999)
   firstSequence?: number;
 }

@@ -1,6 +1,7 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
-import { IsBoolean, IsNumber, IsOptional, IsPositive, IsString, Matches, Max, MaxLength, MinLength, registerDecorator, ValidationArguments } from 'class-validator';
+import { IsBoolean, IsNumber, IsPositive, IsString, Matches, Max, MaxLength, MinLength, registerDecorator, ValidationArguments } from 'class-validator';
 import { serialPatternProblem } from '../../units/serial-numbers';
+import { Optional } from '../../common/validation/presence';
 
 /** Checks that a string is a serial pattern the lot registration can fill in. */
 function IsSerialPattern(): PropertyDecorator {
@@ -56,19 +57,19 @@ export class CreateProductDto {
 }
 
 export class UpdateProductDto {
-  @ApiPropertyOptional() @IsOptional() @IsString() @MinLength(1) @MaxLength(120) name?: string;
-  @ApiPropertyOptional() @IsOptional() @IsString() @MinLength(1) @MaxLength(60) family?: string;
-  @ApiPropertyOptional() @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @IsPositive() @Max(MAX_V) vinMinV?: number;
-  @ApiPropertyOptional() @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @IsPositive() @Max(MAX_V) vinNomV?: number;
-  @ApiPropertyOptional() @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @IsPositive() @Max(MAX_V) vinMaxV?: number;
-  @ApiPropertyOptional() @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @IsPositive() @Max(MAX_V) voutNomV?: number;
-  @ApiPropertyOptional() @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }) @IsPositive() @Max(MAX_A) ioutRatedA?: number;
+  @ApiPropertyOptional() @Optional() @IsString() @MinLength(1) @MaxLength(120) name?: string;
+  @ApiPropertyOptional() @Optional() @IsString() @MinLength(1) @MaxLength(60) family?: string;
+  @ApiPropertyOptional() @Optional() @IsNumber({ allowNaN: false, allowInfinity: false }) @IsPositive() @Max(MAX_V) vinMinV?: number;
+  @ApiPropertyOptional() @Optional() @IsNumber({ allowNaN: false, allowInfinity: false }) @IsPositive() @Max(MAX_V) vinNomV?: number;
+  @ApiPropertyOptional() @Optional() @IsNumber({ allowNaN: false, allowInfinity: false }) @IsPositive() @Max(MAX_V) vinMaxV?: number;
+  @ApiPropertyOptional() @Optional() @IsNumber({ allowNaN: false, allowInfinity: false }) @IsPositive() @Max(MAX_V) voutNomV?: number;
+  @ApiPropertyOptional() @Optional() @IsNumber({ allowNaN: false, allowInfinity: false }) @IsPositive() @Max(MAX_A) ioutRatedA?: number;
 
   @ApiPropertyOptional({ description: 'only while no unit of the product is registered' })
-  @IsOptional() @IsSerialPattern()
+  @Optional() @IsSerialPattern()
   serialPattern?: string;
 
   @ApiPropertyOptional({ description: 'false hides the product from new lots' })
-  @IsOptional() @IsBoolean()
+  @Optional() @IsBoolean()
   active?: boolean;
 }

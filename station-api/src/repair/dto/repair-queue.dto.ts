@@ -1,24 +1,25 @@
 import { ApiProperty, ApiPropertyOptional, PickType } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
-import { IsInt, IsOptional, Max, Min } from 'class-validator';
+import { IsInt, Max, Min } from 'class-validator';
+import { Optional } from '../../common/validation/presence';
 import { BoardLotDto, BoardStationRefDto } from '../../board/dto/board.dto';
 import { MeasurementDto } from '../../runs/dto/runs.dto';
 
 export class RepairQueueQueryDto {
   @ApiPropertyOptional({ description: 'only units of this lot' })
-  @IsOptional() @Type(() => Number) @IsInt({ message: 'lotId must be a whole number' }) @Min(1, { message: 'lotId must be 1 or more' })
+  @Optional() @Type(() => Number) @IsInt({ message: 'lotId must be a whole number' }) @Min(1, { message: 'lotId must be 1 or more' })
   lotId?: number;
 
   @ApiPropertyOptional({ description: 'only units whose last failing run was on this station' })
-  @IsOptional() @Type(() => Number) @IsInt({ message: 'stationId must be a whole number' }) @Min(1, { message: 'stationId must be 1 or more' })
+  @Optional() @Type(() => Number) @IsInt({ message: 'stationId must be a whole number' }) @Min(1, { message: 'stationId must be 1 or more' })
   stationId?: number;
 
   @ApiPropertyOptional({ default: 200, maximum: 1000 })
-  @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(1000, { message: 'limit must be at most 1000' })
+  @Optional() @Type(() => Number) @IsInt() @Min(1) @Max(1000, { message: 'limit must be at most 1000' })
   limit?: number;
 
   @ApiPropertyOptional({ default: 0 })
-  @IsOptional() @Type(() => Number) @IsInt() @Min(0)
+  @Optional() @Type(() => Number) @IsInt() @Min(0)
   offset?: number;
 }
 

@@ -1,6 +1,7 @@
 import { ApiPropertyOptional } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
-import { IsIn, IsOptional } from 'class-validator';
+import { IsIn } from 'class-validator';
+import { Optional } from '../../common/validation/presence';
 import { PRINTER_DPI, type PrinterDpi } from '../repair-tag.pdf';
 
 export class RepairTagQueryDto {
@@ -9,7 +10,7 @@ export class RepairTagQueryDto {
     default: 203,
     description: "the label printer's resolution: the barcode's bars are laid out in whole dots of it",
   })
-  @IsOptional()
+  @Optional()
   @Type(() => Number)
   @IsIn([...PRINTER_DPI], { message: `dpi must be ${PRINTER_DPI.join(' or ')} (the label printer's resolution)` })
   dpi?: PrinterDpi;

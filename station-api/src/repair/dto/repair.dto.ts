@@ -1,6 +1,7 @@
 import { ApiProperty } from '@nestjs/swagger';
 import { Transform } from 'class-transformer';
-import { IsIn, IsOptional, IsString, Length } from 'class-validator';
+import { IsIn, IsString, Length } from 'class-validator';
+import { Optional } from '../../common/validation/presence';
 import { UnitDto } from '../../units/dto/unit.dto';
 import { REPAIR_ACTIONS, type RepairAction } from '../repair-transitions';
 
@@ -37,7 +38,7 @@ export class SendToRepairDto {
     example: 'Output low again after re-seating',
     description: 'why the unit goes to repair with attempts left; kept as the reason in the audit trail',
   })
-  @IsOptional()
+  @Optional()
   @Transform(({ value }) => (typeof value === 'string' ? value.trim() : value))
   @IsString({ message: 'note must be text' })
   @Length(0, REPAIR_NOTE_MAX, { message: `note must be at most ${REPAIR_NOTE_MAX} characters` })

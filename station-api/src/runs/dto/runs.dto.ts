@@ -1,7 +1,8 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform, Type } from 'class-transformer';
-import { Equals, IsBoolean, IsIn, IsInt, IsISO8601, IsOptional, IsString, Max, MaxLength, Min, MinLength } from 'class-validator';
+import { Equals, IsBoolean, IsIn, IsInt, IsISO8601, IsString, Max, MaxLength, Min, MinLength } from 'class-validator';
 import type { LimitView, MeasurementView, RunView, StepOutline, UnitView } from '../../realtime/station-events';
+import { Optional } from '../../common/validation/presence';
 
 const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 
@@ -21,7 +22,7 @@ export class StartRunDto extends ScanDto {
   safetyConfirmed!: boolean;
 
   @ApiPropertyOptional({ description: 'engineer only: why a unit that already passed is tested again' })
-  @IsOptional()
+  @Optional()
   @Transform(trim)
   @IsString()
   @MinLength(5, { message: 'overrideReason must say why, in at least 5 characters' })
@@ -42,14 +43,14 @@ export const RUN_END_REASONS = [
 export const DECISION_STATEMENTS = ['pass', 'conditional_pass', 'conditional_fail', 'fail'] as const satisfies readonly NonNullable<MeasurementView['decision']>[];
 
 export class RunsQueryDto {
-  @ApiPropertyOptional() @IsOptional() @Type(() => Number) @IsInt() @Min(1) stationId?: number;
-  @ApiPropertyOptional() @IsOptional() @Type(() => Number) @IsInt() @Min(1) lotId?: number;
-  @ApiPropertyOptional({ description: 'exact serial' }) @IsOptional() @Transform(trim) @IsString() @MaxLength(64) serial?: string;
-  @ApiPropertyOptional({ enum: RUN_VERDICTS }) @IsOptional() @IsIn(RUN_VERDICTS) verdict?: (typeof RUN_VERDICTS)[number];
-  @ApiPropertyOptional({ description: 'runs started at or after (ISO 8601)' }) @IsOptional() @IsISO8601() from?: string;
-  @ApiPropertyOptional({ description: 'runs started before (ISO 8601)' }) @IsOptional() @IsISO8601() to?: string;
-  @ApiPropertyOptional({ default: 50, maximum: 500 }) @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(500) limit?: number;
-  @ApiPropertyOptional({ default: 0 }) @IsOptional() @Type(() => Number) @IsInt() @Min(0) offset?: number;
+  @ApiPropertyOptional() @Optional() @Type(() => Number) @IsInt() @Min(1) stationId?: number;
+  @ApiPropertyOptional() @Optional() @Type(() => Number) @IsInt() @Min(1) lotId?: number;
+  @ApiPropertyOptional({ description: 'exact serial' }) @Optional() @Transform(trim) @IsString() @MaxLength(64) serial?: string;
+  @ApiPropertyOptional({ enum: RUN_VERDICTS }) @Optional() @IsIn(RUN_VERDICTS) verdict?: (typeof RUN_VERDICTS)[number];
+  @ApiPropertyOptional({ description: 'runs started at or after (ISO 8601)' }) @Optional() @IsISO8601() from?: string;
+  @ApiPropertyOptional({ description: 'runs started before (ISO 8601)' }) @Optional() @IsISO8601() to?: string;
+  @ApiPropertyOptional({ default: 50, maximum: 500 }) @Optional() @Type(() => Number) @IsInt() @Min(1) @Max(500) limit?: number;
+  @ApiPropertyOptional({ default: 0 }) @Optional() @Type(() => Number) @IsInt() @Min(0) offset?: number;
 }
 
 export class LimitDto implements LimitView {

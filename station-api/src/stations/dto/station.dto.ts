@@ -1,7 +1,8 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
-import { IsInt, IsOptional, IsString, Matches, MaxLength, Min, MinLength } from 'class-validator';
+import { IsInt, IsString, Matches, MaxLength, Min, MinLength } from 'class-validator';
 import { FixtureDto } from '../../fixtures/dto/fixture.dto';
 import { LotState } from '../../lots/lot.entity';
+import { Nullable, Optional } from '../../common/validation/presence';
 
 export const STATION_STATES = ['idle', 'ready', 'testing', 'fault', 'blocked'] as const;
 export type StationState = (typeof STATION_STATES)[number];
@@ -33,16 +34,16 @@ export class CreateStationDto {
   code!: string;
 
   @ApiProperty() @IsString() @MinLength(1) @MaxLength(120) name!: string;
-  @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(120) location?: string;
-  @ApiPropertyOptional() @IsOptional() @IsInt() @Min(1) fixtureId?: number;
+  @ApiPropertyOptional() @Optional() @IsString() @MaxLength(120) location?: string;
+  @ApiPropertyOptional() @Optional() @IsInt() @Min(1) fixtureId?: number;
 }
 
 export class UpdateStationDto {
   @ApiPropertyOptional({ type: Number, nullable: true, description: 'an open lot; null clears' })
-  @IsOptional() @IsInt() @Min(1)
+  @Nullable() @IsInt() @Min(1)
   activeLotId?: number | null;
 
   @ApiPropertyOptional({ type: Number, nullable: true, description: 'an active fixture not held by another station; null clears' })
-  @IsOptional() @IsInt() @Min(1)
+  @Nullable() @IsInt() @Min(1)
   fixtureId?: number | null;
 }

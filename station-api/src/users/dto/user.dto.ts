@@ -1,6 +1,7 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
-import { ArrayMaxSize, ArrayMinSize, ArrayUnique, IsArray, IsBoolean, IsIn, IsOptional, IsString, Matches, MaxLength, MinLength } from 'class-validator';
+import { ArrayMaxSize, ArrayMinSize, ArrayUnique, IsArray, IsBoolean, IsIn, IsString, Matches, MaxLength, MinLength } from 'class-validator';
 import { Role, ROLES } from '../user.entity';
+import { Optional } from '../../common/validation/presence';
 
 /** What the API says about a user. Never the password hash. */
 export class UserDto {
@@ -42,16 +43,16 @@ export class CreateUserDto {
 
 export class UpdateUserDto {
   @ApiPropertyOptional()
-  @IsOptional() @IsString() @MinLength(1) @MaxLength(80)
+  @Optional() @IsString() @MinLength(1) @MaxLength(80)
   displayName?: string;
 
   @ApiPropertyOptional({ enum: ROLES, isArray: true })
-  @IsOptional() @IsArray() @ArrayMinSize(1, { message: 'roles must name at least one role' }) @ArrayMaxSize(ROLES.length) @ArrayUnique()
+  @Optional() @IsArray() @ArrayMinSize(1, { message: 'roles must name at least one role' }) @ArrayMaxSize(ROLES.length) @ArrayUnique()
   @IsIn(ROLES, { each: true, message: `each role must be one of ${ROLES.join(', ')}` })
   roles?: Role[];
 
   @ApiPropertyOptional({ description: 'false deactivates (sign-in refused, tokens stop working); true reactivates' })
-  @IsOptional() @IsBoolean()
+  @Optional() @IsBoolean()
   active?: boolean;
 }
 

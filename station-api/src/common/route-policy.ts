@@ -1,0 +1,92 @@
+import type { Role } from '../users/user.entity';
+
+/**
+ * THE route-by-role policy of the station API, in one table (documented in docs/security.md).
+ * The `@Roles(...)` / `@Public()` declarations on the controllers must say the same: the route × role
+ * matrix test (test/security-route-matrix.e2e-spec.ts) reads every route from the running application,
+ * fails on a route missing here or without a declaration, and checks every cell against this table.
+ */
+export type RouteAccess = 'public' | readonly Role[];
+
+export interface RoutePolicy {
+  /** Who may call it: `public` (no token), or the roles of which one suffices */
+  allow: RouteAccess;
+  /** A board display token (POST /api/auth/board-token) also opens it */
+  boardDisplay?: true;
+}
+
+const ALL: readonly Role[] = ['operator', 'engineer', 'quality', 'admin'];
+const TESTERS: readonly Role[] = ['operator', 'engineer', 'admin'];
+const ENGINEERING: readonly Role[] = ['engineer', 'admin'];
+
+/** Key: `METHOD /api/path` with Express parameters (`:id`), exactly as the router has it. */
+export const ROUTE_POLICY: Readonly<Record<string, RoutePolicy>> = {
+  // sign-in
+  'POST /api/auth/login': { allow: 'public' },
+  'GET /api/auth/me': { allow: ALL },
+  'POST /api/auth/board-token': { allow: ['admin'] },
+  // users and audit
+  'GET /api/users': { allow: ['admin'] },
+  'POST /api/users': { allow: ['admin'] },
+  'PATCH /api/users/:id': { allow: ['admin'] },
+  'POST /api/users/:id/password': { allow: ['admin'] },
+  'GET /api/audit': { allow: ['quality', 'admin'] },
+  // master data
+  'GET /api/products': { allow: ALL },
+  'GET /api/products/:id': { allow: ALL },
+  'POST /api/products': { allow: ENGINEERING },
+  'PATCH /api/products/:id': { allow: ENGINEERING },
+  'GET /api/fixtures': { allow: ALL },
+  'GET /api/fixtures/:id': { allow: ALL },
+  'POST /api/fixtures': { allow: ENGINEERING },
+  'PATCH /api/fixtures/:id': { allow: ENGINEERING },
+  'POST /api/fixtures/:id/calibrations': { allow: ENGINEERING },
+  'POST /api/fixtures/:id/contacts-replaced': { allow: ENGINEERING },
+  'GET /api/stations': { allow: ALL },
+  'GET /api/stations/:id': { allow: ALL },
+  'POST /api/stations': { allow: ENGINEERING },
+  // quality may set the active lot; changing the fixture is refused to quality inside (FIXTURE_ASSIGNERS)
+  'PATCH /api/stations/:id': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/lots': { allow: ALL },
+  'GET /api/lots/:id': { allow: ALL },
+  'POST /api/lots': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/units/:serial': { allow: ALL },
+  // plans: admin may do everything engineers may
+  'GET /api/plans': { allow: ALL },
+  'POST /api/plans/validate': { allow: ENGINEERING },
+  'GET /api/plans/:id': { allow: ALL },
+  'POST /api/plans/:id/versions': { allow: ENGINEERING },
+  'GET /api/plan-versions/:id': { allow: ALL },
+  'POST /api/plan-versions/:id/release': { allow: ENGINEERING },
+  // testing at a station
+  'GET /api/stations/:id/status': { allow: ALL },
+  'POST /api/stations/:id/scan': { allow: TESTERS },
+  'POST /api/stations/:id/runs': { allow: TESTERS },
+  'GET /api/runs': { allow: ALL },
+  'GET /api/runs/:id': { allow: ALL },
+  'POST /api/runs/:id/abort': { allow: TESTERS },
+  // shop floor, board and repair
+  'GET /api/stations/:id/shift-summary': { allow: ALL },
+  'GET /api/board': { allow: ALL, boardDisplay: true },
+  'GET /api/runs/:id/repair-tag.pdf': { allow: ALL },
+  'GET /api/repair-queue': { allow: ALL },
+  'POST /api/units/:serial/repair': { allow: ['engineer', 'quality', 'admin'] },
+  'POST /api/units/:serial/send-to-repair': { allow: TESTERS },
+};
+
+/** Live events (socket.io): who may join which room. Rights are checked again on every join. */
+export const SOCKET_POLICY = {
+  /** `station:<id>` (the station must exist): the roles that may test at a station */
+  stationRoom: TESTERS,
+  /** `board`: every role, and board display tokens */
+  boardRoom: ALL,
+} as const;
+
+export function routeKey(method: string, path: string): string {
+  return `${method.toUpperCase()} ${path}`;
+}
+
+/** Whether a board display token opens this route (looked up by the matched Express route path). */
+export function boardDisplayMayUse(method: string, routePath: string | undefined): boolean {
+  return routePath !== undefined && ROUTE_POLICY[routeKey(method, routePath)]?.boardDisplay === true;
+}
