@@ -44,7 +44,7 @@ function generate() {
     const ts = join(dir, 'api-types.ts');
     run('node', [join(root, 'station-api', 'scripts', 'write-openapi.cjs'), json]);
     const bin = join(root, 'node_modules', 'openapi-typescript', 'bin', 'cli.js');
-    run('node', [bin, json, '--output', ts, '--alphabetize']);
+    run('node', [bin, json, '--output', ts, '--alphabetize', '--empty-objects-unknown']);
     return HEADER + readFileSync(ts, 'utf8');
   } finally {
     rmSync(dir, { recursive: true, force: true });

@@ -24,6 +24,7 @@ export type LoginDto = Schemas['LoginDto'];
 export type LoginResponseDto = Schemas['LoginResponseDto'];
 export type CreateUserDto = Schemas['CreateUserDto'];
 export type UpdateUserDto = Schemas['UpdateUserDto'];
+export type ResetPasswordDto = Schemas['ResetPasswordDto'];
 export type AuditEventDto = Schemas['AuditEventDto'];
 export type AuditPageDto = Schemas['AuditPageDto'];
 export type LotDto = Schemas['LotDto'];

@@ -607,10 +607,10 @@ export interface components {
             action: string;
             actorId: number | null;
             actorName: string | null;
-            after: Record<string, never> | null;
+            after: Record<string, unknown> | null;
             /** @description ISO 8601, UTC */
             at: string;
-            before: Record<string, never> | null;
+            before: Record<string, unknown> | null;
             entityId: string | null;
             entityType: string;
             id: number;
@@ -714,7 +714,7 @@ export interface components {
             /** @description why this version is needed */
             reason: string;
             /** @description steps in the plan-definition shape; limits may also be written as nominal with tolerance or tolerancePct */
-            steps: Record<string, never>[];
+            steps: Record<string, unknown>[];
             stopAtFirstFailure: boolean;
         };
         CreateProductDto: {
@@ -851,7 +851,7 @@ export interface components {
             measuredAt: string;
             name: string;
             quantity: string;
-            raw: Record<string, never> | null;
+            raw: Record<string, unknown> | null;
             rule: string;
             runId: number;
             startedAt: string;
@@ -903,7 +903,7 @@ export interface components {
         PlanTextValidationDto: {
             errors: components["schemas"]["PlanTextIssueDto"][];
             /** @description summary of the plan when valid */
-            plan?: Record<string, never>;
+            plan?: Record<string, unknown>;
             valid: boolean;
         };
         PlanVersionDto: {
@@ -914,7 +914,7 @@ export interface components {
             id: number;
             maxAttempts: number;
             /** @description plan the version belongs to */
-            plan: Record<string, never>;
+            plan: Record<string, unknown>;
             planId: number;
             /** @description why this version exists */
             reason: string;
@@ -926,7 +926,7 @@ export interface components {
             state: "draft" | "released" | "superseded";
             stepCount: number;
             /** @description steps as in src/plans/plan-definition.ts (limits normalised to low/high) */
-            steps: Record<string, never>[];
+            steps: Record<string, unknown>[];
             stopAtFirstFailure: boolean;
             /** @description numbered from 1 within the plan */
             version: number;
