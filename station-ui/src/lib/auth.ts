@@ -42,8 +42,8 @@ export const meQueryOptions = () =>
     staleTime: 5 * 60_000,
   });
 
-export function useUser() {
-  return useQuery(meQueryOptions());
+export function useUser(options: { enabled?: boolean } = {}) {
+  return useQuery({ ...meQueryOptions(), enabled: options.enabled ?? true });
 }
 
 /** True when the user holds at least one of `allowed`. */
