@@ -1,3 +1,5 @@
+import { BOARD_DISPLAY_PARAM } from '@/config/paths';
+
 /*
  * The wall screen's board-only token (interfaces §13): an administrator issues a link `/board?display=<token>`;
  * the screen keeps the token and uses it for the board alone, so the wall never drops to the sign-in page when
@@ -5,7 +7,6 @@
  */
 
 export const BOARD_DISPLAY_TOKEN_KEY = 'railwright.boardDisplayToken';
-export const BOARD_DISPLAY_PARAM = 'display';
 
 function storage(): Storage | null {
   try {
@@ -39,11 +40,6 @@ export function displayTokenFor(search: string, personSignedIn: boolean): string
     return fromUrl;
   }
   return personSignedIn ? null : boardDisplayToken.get();
-}
-
-/** The address an administrator hands to a wall screen. */
-export function boardDisplayUrl(origin: string, token: string): string {
-  return `${origin}/board?${BOARD_DISPLAY_PARAM}=${encodeURIComponent(token)}`;
 }
 
 /** Finished runs of this shift only, newest first; without a shift (or a time) nothing can be placed in it. */
