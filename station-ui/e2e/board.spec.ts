@@ -123,7 +123,7 @@ describe('line board (real browser, live events)', () => {
     expect(gap).toBeLessThan(60);
   });
 
-  it('keeps every tile on a 1600×1000 screen with a blocked station and a long reason', async () => {
+  it('keeps every tile on a 1600×1000 screen with a blocked station', async () => {
     await page.setViewportSize({ width: 1600, height: 1000 });
     const eol3 = page.getByTestId('tile-EOL-3');
     expect(await eol3.innerText()).toContain('BLOCKED');
