@@ -2,7 +2,7 @@ import { useQueryClient } from '@tanstack/react-query';
 import type { ClientMessageMap, JoinAck } from '@station-events';
 import { useEffect, useRef, useState } from 'react';
 import { meQueryKey } from './auth';
-import { connectLive, type LiveSocket, type ServerToClientEvents } from './socket';
+import { connectLive, type LiveLinkState, type LiveSocket, type ServerToClientEvents } from './socket';
 
 /** How the live link stands, for a chip or banner: never "online" while the server cannot be reached. */
 export type LiveStatus = 'online' | 'connecting' | 'offline';
@@ -123,4 +123,11 @@ export function useLiveSocket(options: UseLiveSocketOptions): LiveSocketState {
   }, [token, roomsKey, queryClient]);
 
   return state;
+}
+
+/** The older four-word link state (the station's banner reads it) from the hook's state. */
+export function linkStateOf(state: LiveSocketState): LiveLinkState {
+  if (state.refused) return 'refused';
+  if (state.status === 'online') return 'live';
+  return state.status === 'connecting' ? 'connecting' : 'lost';
 }
