@@ -125,6 +125,8 @@ describe('line board (real browser, live events)', () => {
 
   it('keeps every tile on a 1600×1000 screen with a blocked station', async () => {
     await page.setViewportSize({ width: 1600, height: 1000 });
+    // EOL-2's shift figures follow its verdict from the server a moment later; picture them settled
+    await page.waitForFunction(() => document.querySelector('[data-testid="tested-EOL-2"]')?.textContent === '1', undefined, { timeout: 15_000 });
     const eol3 = page.getByTestId('tile-EOL-3');
     expect(await eol3.innerText()).toContain('BLOCKED');
     const outside = await page.evaluate(() =>
