@@ -108,7 +108,60 @@ describe('line board (real browser, live events)', () => {
     });
     expect(await page.getByTestId('current-EOL-2').innerText()).toContain(eol2.good[0]);
     await screenshot(page, 'board');
+    await screenshot(page, 'board-1920x1080');
     await page.waitForFunction(() => document.querySelector('[data-testid="tile-EOL-2"] li[data-verdict]') !== null, undefined, { timeout: 60_000 });
     expect(await verdictMarks('EOL-2')).toEqual(['pass']);
+  });
+
+  it('fills a 1920×1080 wall screen: the tiles reach the bottom of the screen', async () => {
+    const gap = await page.evaluate(() => {
+      const tiles = Array.from(document.querySelectorAll('[data-testid^="tile-"]')).map((t) => t.getBoundingClientRect());
+      return window.innerHeight - Math.max(...tiles.map((r) => r.bottom));
+    });
+    // the board's own padding is all that is left under the tiles (it was half the screen)
+    expect(gap).toBeGreaterThanOrEqual(0);
+    expect(gap).toBeLessThan(60);
+  });
+
+  it('keeps every tile on a 1600×1000 screen with a blocked station', async () => {
+    await page.setViewportSize({ width: 1600, height: 1000 });
+    // EOL-2's shift figures follow its verdict from the server a moment later; picture them settled
+    await page.waitForFunction(() => document.querySelector('[data-testid="tested-EOL-2"]')?.textContent === '1', undefined, { timeout: 15_000 });
+    const eol3 = page.getByTestId('tile-EOL-3');
+    expect(await eol3.innerText()).toContain('BLOCKED');
+    const outside = await page.evaluate(() =>
+      Array.from(document.querySelectorAll('[data-testid^="tile-"]'))
+        .map((t) => ({ id: t.getAttribute('data-testid'), r: t.getBoundingClientRect() }))
+        .filter(({ r }) => r.bottom > window.innerHeight + 0.5 || r.right > window.innerWidth + 0.5)
+        .map(({ id }) => id),
+    );
+    expect(outside).toEqual([]);
+    await screenshot(page, 'board-1600x1000');
+    await page.setViewportSize({ width: 1920, height: 1080 });
+  });
+
+  it('runs on a wall screen from a display link: no sign-in page, the board alone, units with their times', async () => {
+    // any token the board route accepts does for the screen's part; the server issues board-only ones
+    const wall = await browser.newContext({ baseURL: server.baseUrl, viewport: { width: 1920, height: 1080 }, deviceScaleFactor: 1 });
+    const wallPage = await wall.newPage();
+    try {
+      await wallPage.goto(`/board?display=${encodeURIComponent(operatorToken)}`);
+      await wallPage.getByTestId('tile-EOL-1').waitFor();
+      expect(new URL(wallPage.url()).pathname).toBe('/board');
+      expect(await wallPage.locator('[data-display="wall"]').count()).toBe(1);
+      const times = await wallPage.getByTestId('tile-EOL-1').getByTestId('recent-time').allInnerTexts();
+      expect(times.length).toBeGreaterThan(0);
+      for (const t of times) expect(t).toMatch(/^\d\d:\d\d$/);
+      // kept for the next start of the screen, without the address
+      await wallPage.goto('/board');
+      await wallPage.getByTestId('tile-EOL-1').waitFor();
+      expect(new URL(wallPage.url()).pathname).toBe('/board');
+      // a refused token: the screen says so and stays on the board's address
+      await wallPage.goto('/board?display=not-a-token');
+      await wallPage.getByText('Board link expired — ask an administrator for a new one').waitFor();
+      expect(new URL(wallPage.url()).pathname).toBe('/board');
+    } finally {
+      await wall.close();
+    }
   });
 });

@@ -97,7 +97,7 @@ export const verdictLooks: Record<Verdict, VerdictLook> = {
     shape: 'triangle-exclamation',
     description: 'Fixture or software fault: the unit was not judged',
   },
-  aborted: { word: 'ABORTED', color: 'slate', shape: 'bar', description: 'Stopped before the end; the unit was not judged' },
+  aborted: { word: 'STOPPED', color: 'slate', shape: 'bar', description: 'Stopped before the end; the unit was not judged' },
   guard_fail: {
     word: 'FAIL',
     note: 'inside spec, outside guard band',

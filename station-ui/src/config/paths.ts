@@ -79,8 +79,14 @@ export function safeNextPath(next: string | null | undefined): string | null {
 /** Where the API lives, relative to the page (the dev server proxies it; production serves both). */
 export const apiBase = '/api';
 
+/** The wall screen's address with its board-only token (`/board?display=<token>`, issued by an administrator). */
+export const BOARD_DISPLAY_PARAM = 'display';
+export const boardDisplayHref = (token: string): string => `${pages.board.path}?${BOARD_DISPLAY_PARAM}=${encodeURIComponent(token)}`;
+
 export const apiPaths = {
   login: '/auth/login',
+  /** admin only: a board-only token for a wall screen, `{ label }` → `{ token, expiresAt }` */
+  boardToken: '/auth/board-token',
   me: '/auth/me',
   users: '/users',
   user: (id: number) => `/users/${id}`,

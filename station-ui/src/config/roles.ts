@@ -1,6 +1,14 @@
-/** The four roles the station server knows (station-api/src/users/user.entity.ts). */
-export const ROLES = ['operator', 'engineer', 'quality', 'admin'] as const;
-export type Role = (typeof ROLES)[number];
+import type { ApiRole } from '@/lib/api-schema';
+
+/** The roles the station server knows: the type comes from its OpenAPI document (UserDto.roles). */
+export type Role = ApiRole;
+
+/** Every role, in the order pickers list them. */
+export const ROLES = ['operator', 'engineer', 'quality', 'admin'] as const satisfies readonly Role[];
+
+// Compile-time drift check: a role the server adds and this list lacks fails the type-check here.
+const everyRoleListed: Exclude<Role, (typeof ROLES)[number]> extends never ? true : never = true;
+void everyRoleListed;
 
 /** How each role is named on screen. */
 export const roleLabels: Record<Role, string> = {

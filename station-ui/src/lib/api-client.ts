@@ -88,6 +88,8 @@ export interface RequestOptions {
    * not treated as an expired session.
    */
   skipUnauthorizedRedirect?: boolean;
+  /** A token other than the signed-in person's (the wall board's display token); sent instead of it. */
+  token?: string;
 }
 
 function buildUrl(path: string, query?: RequestOptions['query']): string {
@@ -133,7 +135,7 @@ async function toApiError(res: Response): Promise<ApiError> {
  */
 export async function apiRequest<T>(path: string, options: RequestOptions = {}): Promise<T> {
   const headers: Record<string, string> = { Accept: 'application/json' };
-  const token = tokenStore.get();
+  const token = options.token ?? tokenStore.get();
   if (token) headers.Authorization = `Bearer ${token}`;
   if (options.body !== undefined) headers['Content-Type'] = 'application/json';
 

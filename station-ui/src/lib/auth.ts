@@ -2,15 +2,10 @@ import { queryOptions, useQuery, type QueryClient } from '@tanstack/react-query'
 import { apiPaths, pages, type PageDef } from '@/config/paths';
 import type { Role } from '@/config/roles';
 import { api, tokenStore } from './api-client';
+import type { UserDto } from './api-schema';
 
-/** The signed-in person, as `GET /api/auth/me` returns them (docs/architecture.md, Auth API). */
-export interface AuthUser {
-  id: number;
-  username: string;
-  displayName: string;
-  roles: Role[];
-  active: boolean;
-}
+/** The signed-in person, as `GET /api/auth/me` returns them (the server's UserDto). */
+export type AuthUser = UserDto;
 
 const SESSION_ENDED = 'Your session has ended. Sign in again to carry on where you were.';
 let sessionNoticeText: string | null = null;
@@ -47,8 +42,8 @@ export const meQueryOptions = () =>
     staleTime: 5 * 60_000,
   });
 
-export function useUser() {
-  return useQuery(meQueryOptions());
+export function useUser(options: { enabled?: boolean } = {}) {
+  return useQuery({ ...meQueryOptions(), enabled: options.enabled ?? true });
 }
 
 /** True when the user holds at least one of `allowed`. */

@@ -1,32 +1,49 @@
 import { Center, Loader, Stack, Text } from '@mantine/core';
 import { useQueryClient } from '@tanstack/react-query';
-import { useEffect, useRef } from 'react';
+import { lazy, Suspense, useEffect, useMemo, useRef } from 'react';
 import { Navigate, Outlet, useLocation } from 'react-router-dom';
 import { ErrorNotice } from '@/components/errors/error-notice';
 import { AppLayout } from '@/components/layout/app-layout';
 import { NotAllowed } from '@/components/layout/not-allowed';
-import { pageForPathname, paths } from '@/config/paths';
-import { isApiError } from '@/lib/api-client';
+import { pageForPathname, pages, paths } from '@/config/paths';
+import { isApiError, tokenStore } from '@/lib/api-client';
 import { canOpen, clearSession, sessionNotice, useUser } from '@/lib/auth';
+import { displayTokenFor } from '@/features/board/board-display';
+
+// the wall screen's board, without the app frame; its own chunk like every page
+const WallBoard = lazy(() => import('@/features/board/components/board-screen').then((m) => ({ default: m.BoardScreen })));
 
 /**
  * Everything behind sign-in: asks who is signed in, sends strangers to the sign-in page (keeping the
  * address to come back to) and shows "not allowed" instead of pages the person's roles do not open.
  */
 export function AppRoot() {
-  const me = useUser();
   const location = useLocation();
   const queryClient = useQueryClient();
   // Signing out on purpose goes to a plain sign-in page, without "come back here afterwards".
   const signingOut = useRef(false);
   const here = location.pathname + location.search;
   const page = pageForPathname(location.pathname);
+  // `/board?display=<token>`: a wall screen with a board-only token never goes to the sign-in page
+  const displayToken = useMemo(
+    () => (location.pathname === pages.board.path ? displayTokenFor(location.search, !!tokenStore.get()) : null),
+    [location.pathname, location.search],
+  );
+  // the wall screen asks nobody who is signed in: a stale personal token must not send it to sign in
+  const me = useUser({ enabled: !displayToken });
 
   // The tab title names the screen, so several open tabs can be told apart.
   useEffect(() => {
     document.title = page ? `${page.label} · Railwright` : 'Railwright';
   }, [page]);
 
+  if (displayToken) {
+    return (
+      <Suspense fallback={<Loader aria-label="Loading the board" />}>
+        <WallBoard displayToken={displayToken} />
+      </Suspense>
+    );
+  }
   if (me.isPending) {
     return (
       <Center h="100vh">

@@ -1,3 +1,4 @@
+import { formatFigure } from '@contract/value-format';
 import type { CSSProperties } from 'react';
 import classes from './figure.module.css';
 
@@ -14,13 +15,8 @@ export interface FigureProps {
   style?: CSSProperties;
 }
 
-/** Formats with a fixed number of decimals so streamed values keep their width. */
-export function formatFigure(value: number | null | undefined, digits = 3): string {
-  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
-  const text = value.toFixed(digits);
-  // toFixed keeps "-0.000" for tiny negatives; show it as zero.
-  return /^-0\.?0*$/.test(text) ? text.slice(1) : text;
-}
+/** Fixed decimals so streamed values keep their width: the contract's one formatter, not a copy. */
+export { formatFigure };
 
 /**
  * A measured number with its unit, in JetBrains Mono with tabular digits so columns line up and a

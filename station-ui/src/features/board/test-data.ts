@@ -1,12 +1,18 @@
 import type { BoardStation } from './api/get-board';
 
 /** Board tiles shaped like `GET /api/board`, for the board's tests (invented demo plant). */
+// one "now" per test file, so two sample boards are equal
+const LOADED_AT = Math.floor(Date.now() / 60_000) * 60_000;
+
+/** A time `minutes` from now, ISO 8601: the sample shift is always the one under way. */
+export const minutesFromNow = (minutes: number): string => new Date(LOADED_AT + minutes * 60_000).toISOString();
+
 export function sampleBoard(): BoardStation[] {
   const shift = (stationId: number, tested: number, passed: number, fpy: number | null) => ({
     stationId,
     shiftName: 'Early',
-    shiftStart: '2026-11-26T06:00:00.000Z',
-    shiftEnd: '2026-11-26T14:00:00.000Z',
+    shiftStart: minutesFromNow(-240),
+    shiftEnd: minutesFromNow(240),
     tested,
     passed,
     failed: tested - passed,
@@ -24,8 +30,8 @@ export function sampleBoard(): BoardStation[] {
       activeLot: { id: 6, code: 'LB-2648-01', partNumber: 'OB-BK0503' },
       currentRun: null,
       lastRuns: [
-        { id: 12, serial: 'K5A-2648-00012', verdict: 'fail', failedStepKey: 'vout-load', finishedAt: '2026-11-26T08:10:00.000Z' },
-        { id: 11, serial: 'K5A-2648-00011', verdict: 'pass', failedStepKey: null, finishedAt: '2026-11-26T08:09:00.000Z' },
+        { id: 12, serial: 'K5A-2648-00012', verdict: 'fail', failedStepKey: 'vout-load', finishedAt: minutesFromNow(-20) },
+        { id: 11, serial: 'K5A-2648-00011', verdict: 'pass', failedStepKey: null, finishedAt: minutesFromNow(-21) },
       ],
       shift: shift(1, 2, 1, 50),
     },

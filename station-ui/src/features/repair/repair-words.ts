@@ -1,4 +1,4 @@
-import { formatFigure } from '@/components/figure';
+import { FLAG_UNIT, formatMeasured, type MeasuredFigures } from '@contract/value-format';
 import { isApiError } from '@/lib/api-client';
 import type { RepairAction } from './api/repair-unit';
 
@@ -41,33 +41,14 @@ export function describeRepairError(error: unknown): string {
   return error.message;
 }
 
-const has = (v: number | null | undefined): v is number => typeof v === 'number' && Number.isFinite(v);
-
-/** Decimals: V three, % and mV one (enough to compare with the limits); the same rule the station and runs screens follow. */
-function digitsFor(quantity: string, unit: string): number {
-  if (quantity.startsWith('efficiency')) return 1;
-  if (unit === '%') return 2;
-  if (unit === 'V' || unit === 'A') return 3;
-  if (unit === 'mV' || unit === 'mA' || unit === 'µs') return 1;
-  return 2;
-}
-
-/** "5.412 V" for a value; yes/no results (unit `flag`) as words. */
-export function formatMeasured(value: number | null, quantity: string, unit: string): string {
-  if (unit === 'flag') return has(value) ? (value >= 0.5 ? 'yes' : 'no') : '—';
-  if (!has(value)) return 'no value';
-  return `${formatFigure(value, digitsFor(quantity, unit))} ${unit}`.trim();
-}
-
-/** Limits as `low … high unit`, one-sided as `≤ high` / `≥ low`. */
-export function formatLimitRange(low: number | null, high: number | null, quantity: string, unit: string): string {
-  if (unit === 'flag') return has(low) && low >= 0.5 ? 'must be yes' : 'must be no';
-  const d = digitsFor(quantity, unit);
-  const u = unit ? ` ${unit}` : '';
-  if (has(low) && has(high)) return `${formatFigure(low, d)} … ${formatFigure(high, d)}${u}`;
-  if (has(high)) return `≤ ${formatFigure(high, d)}${u}`;
-  if (has(low)) return `≥ ${formatFigure(low, d)}${u}`;
-  return 'no limit';
+/**
+ * "5.412 V (≥ 5.400 V)": the value and the limits it was judged against, written by the one formatter
+ * (`@contract/value-format`) with the same digits, so rounding never hides the outcome.
+ */
+export function describeFailure(f: MeasuredFigures): { value: string; limits: string } {
+  const shown = formatMeasured(f);
+  const value = f.unit === FLAG_UNIT || shown.value !== '—' ? `${shown.value}${shown.unit ? ` ${shown.unit}` : ''}` : 'no value';
+  return { value, limits: shown.accept ? `${shown.spec}; accepted ${shown.accept}` : shown.spec };
 }
 
 const p2 = (n: number) => String(n).padStart(2, '0');

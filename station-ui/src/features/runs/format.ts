@@ -1,6 +1,4 @@
 
-export { digitsFor, FLAG_UNIT, formatLimits, formatValue, guardDiffers } from '@/lib/measurement-format';
-
 const has = (v: number | null | undefined): v is number => typeof v === 'number' && Number.isFinite(v);
 
 /** Run length as "8.4 s" under a minute, "1:05" (min:s) above; a dash while still running. */

@@ -1,5 +1,5 @@
-import type { MeasurementView, RunView } from '@station-events';
 import type { RunDetail } from './api/get-run';
+import type { RunMeasurement as MeasurementView, RunRow as RunView } from './api/run-types';
 
 /** Invented Orrin Bay runs for the component tests (docs/architecture.md demo plant). */
 export function makeRun(overrides: Partial<RunView> = {}): RunView {
@@ -54,6 +54,7 @@ export function makeMeasurement(overrides: Partial<MeasurementView> = {}): Measu
     uncertainty: 0.004,
     rule: 'simple',
     verdict: 'pass',
+    decision: 'pass',
     raw: { samples: [3.301, 3.299], dmmRange: '10V' },
     startedAt: '2026-03-02T09:15:06.000Z',
     measuredAt: '2026-03-02T09:15:06.500Z',
@@ -75,6 +76,7 @@ export function makeRunDetail(overrides: Partial<RunDetail> = {}): RunDetail {
         guardedHigh: 3.346,
         rule: 'guarded',
         verdict: 'guard_fail',
+        decision: 'conditional_fail',
         raw: { samples: [3.348] },
       }),
     ],

@@ -1,15 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiPaths } from '@/config/paths';
-import type { Role } from '@/config/roles';
 import { api } from '@/lib/api-client';
+import type { CreateUserDto } from '@/lib/api-schema';
 import { usersQueryKey, type UserRow } from './get-users';
 
-export interface CreateUserInput {
-  username: string;
-  displayName: string;
-  password: string;
-  roles: Role[];
-}
+export type CreateUserInput = CreateUserDto;
 
 export function createUser(input: CreateUserInput): Promise<UserRow> {
   return api.post<UserRow>(apiPaths.users, input);

@@ -1,38 +1,15 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { apiPaths } from '@/config/paths';
 import { api } from '@/lib/api-client';
+import type { ApiQuery, AuditEventDto, AuditPageDto } from '@/lib/api-schema';
 
-/** One audit entry, as `GET /api/audit` lists it (station-api/src/audit/dto/audit.dto.ts). */
-export interface AuditEntry {
-  id: number;
-  /** ISO 8601, UTC */
-  at: string;
-  actorId: number | null;
-  /** User name as given (for a failed sign-in the user may not exist) */
-  actorName: string | null;
-  action: string;
-  entityType: string;
-  entityId?: string | null;
-  reason?: string | null;
-  before?: Record<string, unknown> | null;
-  after?: Record<string, unknown> | null;
-}
+/** One audit entry, as `GET /api/audit` lists it (the server's AuditEventDto). */
+export type AuditEntry = AuditEventDto;
 
-/** The filters the server accepts; it refuses any other query field. */
-export interface AuditFilters {
-  /** Action name, e.g. `auth.login_failed` (exact match) */
-  action?: string;
-  /** Kind of record, e.g. `user` */
-  entityType?: string;
-  entityId?: string;
-  limit: number;
-  offset: number;
-}
+/** The filters the server accepts (it refuses any other query field); the screen always pages. */
+export type AuditFilters = ApiQuery<'AuditController_list'> & { limit: number; offset: number };
 
-export interface AuditPage {
-  items: AuditEntry[];
-  total: number;
-}
+export type AuditPage = AuditPageDto;
 
 export async function getAudit(filters: AuditFilters): Promise<AuditPage> {
   return api.get<AuditPage>(apiPaths.audit, { query: { ...filters } });

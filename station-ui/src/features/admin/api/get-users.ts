@@ -1,10 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { apiPaths } from '@/config/paths';
 import { api } from '@/lib/api-client';
-import type { AuthUser } from '@/lib/auth';
+import type { UserDto } from '@/lib/api-schema';
 
 /** A user as the admin list shows it (`GET /api/users`). */
-export type UserRow = AuthUser & { createdAt?: string; updatedAt?: string };
+export type UserRow = UserDto;
 
 export const usersQueryKey = ['admin', 'users'] as const;
 

@@ -1,16 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiPaths } from '@/config/paths';
-import type { Role } from '@/config/roles';
 import { api } from '@/lib/api-client';
+import type { UpdateUserDto } from '@/lib/api-schema';
 import { meQueryKey } from '@/lib/auth';
 import { usersQueryKey, type UserRow } from './get-users';
 
-export interface UpdateUserInput {
-  id: number;
-  displayName?: string;
-  roles?: Role[];
-  active?: boolean;
-}
+export type UpdateUserInput = { id: number } & UpdateUserDto;
 
 export function updateUser({ id, ...changes }: UpdateUserInput): Promise<UserRow> {
   return api.patch<UserRow>(apiPaths.user(id), changes);

@@ -1,6 +1,6 @@
 import { Alert, Badge, Button, Group, Modal, Skeleton, Stack, Table, Text, VisuallyHidden } from '@mantine/core';
 import { notifications } from '@mantine/notifications';
-import { IconKey, IconPencil, IconUserCheck, IconUserOff, IconUserPlus } from '@tabler/icons-react';
+import { IconDeviceDesktop, IconKey, IconPencil, IconUserCheck, IconUserOff, IconUserPlus } from '@tabler/icons-react';
 import { useState } from 'react';
 import { ErrorNotice } from '@/components/errors/error-notice';
 import { PageHeader } from '@/components/layout/page-header';
@@ -9,6 +9,7 @@ import { useUser } from '@/lib/auth';
 import { useUsers, type UserRow } from '../api/get-users';
 import { useUpdateUser } from '../api/update-user';
 import { describeAdminError } from './admin-error';
+import { BoardLinkModal } from './board-link-modal';
 import { CreateUserModal } from './create-user-modal';
 import { EditUserModal } from './edit-user-modal';
 import { ResetPasswordModal } from './reset-password-modal';
@@ -20,6 +21,7 @@ export function UsersScreen() {
   const { data: me } = useUser();
   const update = useUpdateUser();
   const [creating, setCreating] = useState(false);
+  const [boardLink, setBoardLink] = useState(false);
   const [editing, setEditing] = useState<UserRow | null>(null);
   const [resetting, setResetting] = useState<UserRow | null>(null);
   const [deactivating, setDeactivating] = useState<UserRow | null>(null);
@@ -52,11 +54,17 @@ export function UsersScreen() {
         title="Users"
         description="Who may sign in to the stations, and what each person may open."
         actions={
-          <Button leftSection={<IconUserPlus size={18} aria-hidden />} onClick={() => setCreating(true)}>
-            Add user
-          </Button>
+          <Group gap="sm">
+            <Button variant="default" leftSection={<IconDeviceDesktop size={18} aria-hidden />} onClick={() => setBoardLink(true)}>
+              Board display link
+            </Button>
+            <Button leftSection={<IconUserPlus size={18} aria-hidden />} onClick={() => setCreating(true)}>
+              Add user
+            </Button>
+          </Group>
         }
       />
+      <BoardLinkModal opened={boardLink} onClose={() => setBoardLink(false)} />
       {rowNotice && (
         <Alert color="signalRed" variant="light" role="alert" mb="md" withCloseButton onClose={() => setRowNotice(null)}>
           {rowNotice}

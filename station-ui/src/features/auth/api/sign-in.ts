@@ -1,20 +1,13 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiPaths } from '@/config/paths';
 import { api, tokenStore } from '@/lib/api-client';
-import { meQueryKey, type AuthUser } from '@/lib/auth';
+import type { LoginDto, LoginResponseDto } from '@/lib/api-schema';
+import { meQueryKey } from '@/lib/auth';
 
-export interface SignInInput {
-  username: string;
-  password: string;
-}
+export type SignInInput = LoginDto;
 
-/** `POST /api/auth/login` answer (docs/architecture.md, Auth API). */
-export interface SignInResult {
-  accessToken: string;
-  /** Token lifetime in seconds */
-  expiresIn: number;
-  user: AuthUser;
-}
+/** `POST /api/auth/login` answer: token, its lifetime in seconds, and the user. */
+export type SignInResult = LoginResponseDto;
 
 export function signIn(input: SignInInput): Promise<SignInResult> {
   // A wrong password answers 401: that belongs on the form, not in the "session ended" path.

@@ -1,8 +1,10 @@
 import { screen, waitFor, within } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { BOARD_DISPLAY_TOKEN_KEY } from '../board-display';
 import { FakeSocket, fireOn } from '@/testing/fake-socket';
 import { jsonResponse, makeUser, renderApp } from '@/testing/render';
-import { sampleBoard } from '../test-data';
+import { meQueryKey } from '@/lib/auth';
+import { minutesFromNow, sampleBoard } from '../test-data';
 import { BoardScreen } from './board-screen';
 
 const sockets: FakeSocket<string>[] = [];
@@ -21,9 +23,16 @@ describe('BoardScreen', () => {
     sockets.length = 0;
     vi.stubGlobal('fetch', vi.fn(async () => jsonResponse(200, sampleBoard())));
   });
-  afterEach(() => vi.unstubAllGlobals());
+  afterEach(() => {
+    vi.unstubAllGlobals();
+    window.localStorage.removeItem(BOARD_DISPLAY_TOKEN_KEY);
+  });
 
   it('shows every station with state, lot, last verdicts and shift figures', async () => {
+    const board = sampleBoard();
+    // a week old: not this shift's, so not among "Last units"
+    board[0]!.lastRuns.push({ id: 3, serial: 'K5A-2648-00003', verdict: 'pass', failedStepKey: null, finishedAt: minutesFromNow(-7 * 24 * 60) });
+    vi.stubGlobal('fetch', vi.fn(async () => jsonResponse(200, board)));
     renderApp(<BoardScreen />, { signedInAs: makeUser(['operator']) });
     const one = await screen.findByTestId('tile-EOL-1');
     expect(one).toHaveTextContent('READY');
@@ -32,6 +41,9 @@ describe('BoardScreen', () => {
     const marks = within(one).getByRole('list', { name: 'Last verdicts, newest first' });
     expect(within(marks).getAllByRole('listitem').map((li) => li.getAttribute('data-verdict'))).toEqual(['fail', 'pass']);
     expect(marks).toHaveTextContent('FAIL K5A-2648-00012');
+    // each unit with its time; the week-old unit is not this shift's and stays off the board
+    expect(within(marks).getAllByTestId('recent-time')[0]!.textContent).toMatch(/^\d\d:\d\d$/);
+    expect(one).not.toHaveTextContent('K5A-2648-00003');
     const two = screen.getByTestId('tile-EOL-2');
     expect(two).toHaveTextContent('BLOCKED');
     expect(within(two).getByRole('alert')).toHaveTextContent('Calibration of FX-102 overdue since 3 Nov');
@@ -68,5 +80,33 @@ describe('BoardScreen', () => {
     await screen.findByTestId('tile-EOL-1');
     await fire('disconnect', 'transport close');
     expect(screen.getByRole('status')).toHaveTextContent('Live link lost — reconnecting');
+  });
+
+  it('signs in again when the server drops the live link with auth:error (regression: the board ignored it)', async () => {
+    const { queryClient } = renderApp(<BoardScreen />, { signedInAs: makeUser(['operator']) });
+    await screen.findByTestId('tile-EOL-1');
+    await fire('connect', undefined);
+    // the shell asks who is signed in; the server's 401 then leads to the sign-in page
+    await fire('auth:error', { message: 'Your session has ended.' });
+    expect(queryClient.getQueryState(meQueryKey)?.isInvalidated).toBe(true);
+  });
+
+  it('shows the board with a display link\'s token, never the sign-in page, and says when the link expired', async () => {
+    const fetchMock = vi.fn(async () => jsonResponse(200, sampleBoard()));
+    vi.stubGlobal('fetch', fetchMock);
+    renderApp(<BoardScreen displayToken="board-only-token" />);
+    await screen.findByTestId('tile-EOL-1');
+    const [, init] = fetchMock.mock.calls[0] as unknown as [string, RequestInit];
+    expect((init.headers as Record<string, string>).Authorization).toBe('Bearer board-only-token');
+    await fire('connect', undefined);
+    await fire('auth:error', { message: 'Token expired' });
+    expect(await screen.findByRole('alert')).toHaveTextContent('Board link expired — ask an administrator for a new one');
+    expect(screen.queryByTestId('tile-EOL-1')).toBeNull();
+  });
+
+  it('says the link expired when the board itself is refused with the display token', async () => {
+    vi.stubGlobal('fetch', vi.fn(async () => jsonResponse(401, { statusCode: 401, error: 'Unauthorized', message: 'Token expired' })));
+    renderApp(<BoardScreen displayToken="old-token" />);
+    expect(await screen.findByRole('alert')).toHaveTextContent('Board link expired — ask an administrator for a new one');
   });
 });

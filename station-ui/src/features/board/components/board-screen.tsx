@@ -2,10 +2,13 @@ import { Button, Loader } from '@mantine/core';
 import { IconMaximize } from '@tabler/icons-react';
 import { useEffect, useRef, useState } from 'react';
 import { ErrorNotice } from '@/components/errors/error-notice';
+import { isApiError } from '@/lib/api-client';
 import { useBoard } from '../api/get-board';
 import { useBoardLive } from '../hooks/use-board-live';
 import classes from './board.module.css';
 import { StationTile } from './station-tile';
+
+export const BOARD_LINK_EXPIRED = 'Board link expired — ask an administrator for a new one';
 
 function WallClock() {
   const [now, setNow] = useState(() => new Date());
@@ -20,25 +23,37 @@ function WallClock() {
   );
 }
 
+export interface BoardScreenProps {
+  /**
+   * The wall screen's board-only token (`/board?display=<token>`): the board fills the screen without the
+   * app's frame, and a refused token says so on the board instead of going to the sign-in page.
+   */
+  displayToken?: string;
+}
+
 /**
  * The line board (`/board`) for a wall screen read from 3–5 m: every station at once, live, nothing to
- * click. Dark surfaces cut glare; states and verdicts carry word, shape and colour.
+ * click. Dark surfaces cut glare; states and verdicts carry word, shape and colour. The tiles share the
+ * screen's height, so a long blocked reason never pushes another station off it.
  */
-export function BoardScreen() {
-  const board = useBoard();
-  const link = useBoardLive();
+export function BoardScreen({ displayToken }: BoardScreenProps) {
+  const board = useBoard(displayToken);
+  const [expired, setExpired] = useState(false);
+  const live = useBoardLive({ displayToken, onAuthError: displayToken ? () => setExpired(true) : undefined });
   const rootRef = useRef<HTMLDivElement>(null);
+  const refused = isApiError(board.error) && (board.error.status === 401 || board.error.status === 403);
+  const linkExpired = !!displayToken && (expired || refused);
 
   return (
-    <div className={classes.board} ref={rootRef} data-testid="board">
+    <div className={classes.board} ref={rootRef} data-testid="board" data-display={displayToken ? 'wall' : undefined}>
       <div className={classes.boardHead}>
         <h1 className={classes.boardTitle}>Line board</h1>
-        {link === 'lost' && (
+        {!linkExpired && live.status === 'offline' && !live.refused && (
           <span className={classes.linkLost} role="status">
             Live link lost — reconnecting
           </span>
         )}
-        {link === 'refused' && (
+        {!linkExpired && live.refused && (
           <span className={classes.linkLost} role="status">
             Live link refused — sign in again
           </span>
@@ -56,14 +71,22 @@ export function BoardScreen() {
           </Button>
         )}
       </div>
-      {board.isPending && <Loader color="copper" aria-label="Loading the board" />}
-      {board.isError && <ErrorNotice error={board.error} title="The board could not be loaded" onRetry={() => board.refetch()} />}
-      {board.data && (
-        <div className={classes.grid}>
-          {board.data.map((tile) => (
-            <StationTile key={tile.station.id} tile={tile} />
-          ))}
-        </div>
+      {linkExpired ? (
+        <p className={classes.expired} role="alert">
+          {BOARD_LINK_EXPIRED}
+        </p>
+      ) : (
+        <>
+          {board.isPending && <Loader color="copper" aria-label="Loading the board" />}
+          {board.isError && <ErrorNotice error={board.error} title="The board could not be loaded" onRetry={() => board.refetch()} />}
+          {board.data && (
+            <div className={classes.grid} data-count={board.data.length}>
+              {board.data.map((tile) => (
+                <StationTile key={tile.station.id} tile={tile} />
+              ))}
+            </div>
+          )}
+        </>
       )}
     </div>
   );

@@ -2,6 +2,7 @@ import { Progress } from '@mantine/core';
 import { formatFigure } from '@/components/figure';
 import { StationStateMark } from '@/components/station-state';
 import type { BoardStation } from '../api/get-board';
+import { runsThisShift } from '../board-display';
 import classes from './board.module.css';
 import { RecentVerdicts } from './recent-verdicts';
 
@@ -54,8 +55,8 @@ export function StationTile({ tile }: { tile: BoardStation }) {
         )}
       </div>
       <div className={classes.recentBlock}>
-        <span className={classes.label}>Last units</span>
-        <RecentVerdicts runs={lastRuns} />
+        <span className={classes.label}>Last units this shift</span>
+        <RecentVerdicts runs={runsThisShift(lastRuns, shift)} />
       </div>
       <footer className={classes.shift}>
         <span className={classes.shiftName}>{shift?.shiftName ?? 'This shift'}</span>

@@ -1,25 +1,16 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiPaths } from '@/config/paths';
 import { api } from '@/lib/api-client';
+import type { RepairActionDto, RepairResultDto } from '@/lib/api-schema';
 import { repairQueueQueryKey } from './get-repair-queue';
 
-export type RepairAction = 'receive' | 'return' | 'scrap';
+export type RepairAction = RepairActionDto['action'];
 
-export interface RepairInput {
-  serial: string;
-  action: RepairAction;
-  /** What was found or done, 3–500 characters; kept as the reason in the audit trail */
-  note: string;
-}
+/** The action and its note (3–500 characters; kept as the reason in the audit trail). */
+export type RepairInput = RepairActionDto & { serial: string };
 
 /** `POST /api/units/:serial/repair` → the step taken and the unit as it is now. */
-export interface RepairResult {
-  action: RepairAction;
-  fromState: string;
-  toState: string;
-  auditEventId: number;
-  unit: { id: number; serial: string; state: string; testCount: number };
-}
+export type RepairResult = RepairResultDto;
 
 export function repairUnit({ serial, action, note }: RepairInput): Promise<RepairResult> {
   return api.post<RepairResult>(apiPaths.unitRepair(serial), { action, note });

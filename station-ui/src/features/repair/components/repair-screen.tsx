@@ -3,7 +3,7 @@ import { useState } from 'react';
 import { ErrorNotice } from '@/components/errors/error-notice';
 import { PageHeader } from '@/components/layout/page-header';
 import { useRepairQueue, type RepairQueueItem } from '../api/get-repair-queue';
-import { ACTION_WORDS, actionsFor, formatLimitRange, formatMeasured, formatWhen } from '../repair-words';
+import { ACTION_WORDS, actionsFor, describeFailure, formatWhen } from '../repair-words';
 import { RepairModal, type RepairTarget } from './repair-modal';
 import classes from './repair.module.css';
 
@@ -85,9 +85,9 @@ function QueueRow({ item, onAction }: { item: RepairQueueItem; onAction: (action
       <Table.Td className={classes.mono}>
         {f ? (
           <>
-            {formatMeasured(f.value, f.quantity, f.unit)}{' '}
+            {describeFailure(f).value}{' '}
             <Text span c="dimmed" inherit>
-              ({formatLimitRange(f.lowLimit, f.highLimit, f.quantity, f.unit)})
+              ({describeFailure(f).limits})
             </Text>
           </>
         ) : (

@@ -1,10 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { MeasurementView, RunView, StepOutline } from '@station-events';
 import { apiPaths } from '@/config/paths';
 import { api } from '@/lib/api-client';
 
-/** `GET /api/runs/:id`: the run with every stored measurement and the plan steps it ran. */
-export type RunDetail = RunView & { measurements: MeasurementView[]; steps: StepOutline[] };
+import type { RunDetail } from './run-types';
+
+export type { RunDetail } from './run-types';
 
 export function getRun(runId: number, signal?: AbortSignal): Promise<RunDetail> {
   return api.get<RunDetail>(apiPaths.run(runId), { signal });

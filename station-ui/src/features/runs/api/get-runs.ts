@@ -1,28 +1,17 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { RunView } from '@station-events';
 import { apiPaths } from '@/config/paths';
 import { api } from '@/lib/api-client';
+import type { ApiQuery, ApiRunVerdict } from '@/lib/api-schema';
+import type { RunRow } from './run-types';
 
-/** The filters `GET /api/runs` accepts (station-api runs/dto/runs.dto.ts RunsQueryDto); it refuses any other field. */
-export interface RunsQuery {
-  stationId?: number;
-  lotId?: number;
-  /** Exact serial: the server has no prefix search */
-  serial?: string;
-  verdict?: RunVerdictFilter;
-  /** Runs started at or after, ISO 8601 */
-  from?: string;
-  /** Runs started before (exclusive), ISO 8601 */
-  to?: string;
-  limit: number;
-  offset: number;
-}
+/** The filters `GET /api/runs` accepts (generated from the server's query DTO); the screen always pages. */
+export type RunsQuery = ApiQuery<'RunsController_list'> & { limit: number; offset: number };
 
-export const RUN_VERDICT_FILTERS = ['pass', 'fail', 'error', 'aborted', 'running'] as const;
+export const RUN_VERDICT_FILTERS = ['pass', 'fail', 'error', 'aborted', 'running'] as const satisfies readonly ApiRunVerdict[];
 export type RunVerdictFilter = (typeof RUN_VERDICT_FILTERS)[number];
 
 export interface RunsPage {
-  items: RunView[];
+  items: RunRow[];
   total: number;
 }
 

@@ -1,13 +1,15 @@
 import { ActionIcon, Table, Text, VisuallyHidden } from '@mantine/core';
 import { IconChevronDown, IconChevronRight } from '@tabler/icons-react';
+import { decisionWords } from '@contract/run-outcome';
+import { formatMeasured, formatValue } from '@contract/value-format';
 import { Fragment, useState } from 'react';
-import type { MeasurementView } from '@station-events';
+import type { RunMeasurement as MeasurementView } from '../api/run-types';
 import { VerdictBadge } from '@/components/verdict';
 import { isVerdict } from '@/theme';
-import { formatLimits, formatStamp, formatTime, formatValue, guardDiffers } from '../format';
+import { formatStamp, formatTime } from '../format';
 import classes from './run-detail.module.css';
 
-const COLUMNS = 10;
+const COLUMNS = 11;
 
 /** Decision rules as stored by the engine, in words (the rule names are the plan files' own). */
 function ruleLabel(rule: string): string {
@@ -60,13 +62,15 @@ export function MeasurementsTable({ measurements }: { measurements: MeasurementV
             <Table.Th className={classes.num}>U (k = 2)</Table.Th>
             <Table.Th>Rule</Table.Th>
             <Table.Th>Verdict</Table.Th>
+            <Table.Th title="Decision statement, ILAC-G8:09/2019 §4.2.3">Decision</Table.Th>
             <Table.Th>Measured</Table.Th>
           </Table.Tr>
         </Table.Thead>
         <Table.Tbody>
           {measurements.map((m) => {
-            const value = formatValue(m.value, m.quantity, m.unit);
-            const guarded = guardDiffers(m.lowLimit, m.highLimit, m.guardedLow, m.guardedHigh);
+            // value and limits with the same digits, so the comparison a reader makes agrees with the engine's
+            const shown = formatMeasured(m);
+            const decision = decisionWords(m.decision);
             const expanded = open.has(m.id);
             const failed = m.verdict !== 'pass';
             return (
@@ -94,19 +98,18 @@ export function MeasurementsTable({ measurements }: { measurements: MeasurementV
                     <div className={classes.stepKey}>{m.quantity}</div>
                   </Table.Td>
                   <Table.Td className={`${classes.mono} ${classes.num}`} data-testid="measurement-value">
-                    <strong>{value.text}</strong>
-                    {value.unit && ` ${value.unit}`}
+                    <strong>{shown.value}</strong>
+                    {shown.unit && ` ${shown.unit}`}
                   </Table.Td>
-                  <Table.Td className={classes.mono}>{formatLimits(m.lowLimit, m.highLimit, m.quantity, m.unit)}</Table.Td>
-                  <Table.Td className={classes.mono}>
-                    {guarded ? formatLimits(m.guardedLow, m.guardedHigh, m.quantity, m.unit) : <span className={classes.dim}>same as spec</span>}
-                  </Table.Td>
+                  <Table.Td className={classes.mono}>{shown.spec}</Table.Td>
+                  <Table.Td className={classes.mono}>{shown.accept ?? <span className={classes.dim}>same as spec</span>}</Table.Td>
                   <Table.Td className={`${classes.mono} ${classes.num}`}>
                     {formatValue(m.uncertainty, m.quantity, m.unit).text}
                     {m.unit && m.unit !== 'flag' ? ` ${m.unit}` : ''}
                   </Table.Td>
                   <Table.Td title={ruleHint(m.rule)}>{ruleLabel(m.rule)}</Table.Td>
                   <Table.Td>{isVerdict(m.verdict) ? <VerdictBadge verdict={m.verdict} size="sm" /> : m.verdict}</Table.Td>
+                  <Table.Td data-testid="measurement-decision">{decision ?? <span className={classes.dim}>not recorded</span>}</Table.Td>
                   <Table.Td className={classes.mono} title={formatStamp(m.measuredAt)}>
                     {formatTime(m.measuredAt)}
                   </Table.Td>

@@ -2,7 +2,7 @@ import { screen, within } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { jsonResponse, makeUser, renderApp } from '@/testing/render';
 import type { RunDetail } from '../api/get-run';
-import { makeRunDetail } from '../test-data';
+import { makeMeasurement, makeRunDetail } from '../test-data';
 import { RunDetailScreen } from './run-detail-screen';
 
 function serve(detail: RunDetail) {
@@ -81,6 +81,39 @@ describe('RunDetailScreen', () => {
     expect(guardRow).toHaveTextContent('inside spec, outside guard band');
     expect(guardRow?.querySelector('span[data-verdict="guard_fail"] svg')).toHaveAttribute('data-shape', 'square-cross');
     expect(within(table).getAllByText('inside spec, outside guard band')).toHaveLength(1);
+  });
+
+  it('shows each measurement\'s decision statement in words (ILAC-G8:09/2019 §4.2.3)', async () => {
+    renderDetail();
+    const table = await screen.findByRole('table', { name: 'Measurements' });
+    const [, passRow, guardRow] = within(table).getAllByRole('row');
+    expect(within(passRow!).getByTestId('measurement-decision')).toHaveTextContent(/^pass$/);
+    expect(within(guardRow!).getByTestId('measurement-decision')).toHaveTextContent('fail, within uncertainty');
+  });
+
+  it('writes a value with the digit that shows why it failed (92.96 % against ≥ 93.0 %)', async () => {
+    // self-constructed example: at one decimal 92.96 would read "93.0", inside the limit it failed
+    serve(
+      makeRunDetail({
+        measurements: [
+          makeMeasurement({ quantity: 'efficiencyPct@1.5', name: 'Efficiency', unit: '%', value: 92.96, lowLimit: 93, highLimit: null, guardedLow: 93, guardedHigh: null, verdict: 'fail', decision: 'fail' }),
+        ],
+      }),
+    );
+    renderDetail();
+    const table = await screen.findByRole('table', { name: 'Measurements' });
+    const [, row] = within(table).getAllByRole('row');
+    expect(within(row!).getByTestId('measurement-value')).toHaveTextContent('92.96 %');
+    expect(row).toHaveTextContent('≥ 93.00 %');
+  });
+
+  it('says why a run ended and calls a stopped run "stopped", not aborted', async () => {
+    serve(makeRunDetail({ verdict: 'aborted', endReason: 'server_shutdown', errorMessage: 'Stopped: station server shut down' }));
+    const { container } = renderDetail();
+    await screen.findByTestId('run-serial');
+    expect(container.querySelector('[data-verdict="aborted"]')).toHaveTextContent('STOPPED');
+    expect(screen.getByTestId('trace-error')).toHaveTextContent('Run ended: station server shut down');
+    expect(screen.queryByText(/aborted/i)).toBeNull();
   });
 
   it('unfolds the raw readings as pretty-printed JSON', async () => {

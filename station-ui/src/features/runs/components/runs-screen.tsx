@@ -2,7 +2,8 @@ import { Button, Group, Pagination, Paper, Select, Skeleton, Stack, Table, Text,
 import { IconSearch, IconX } from '@tabler/icons-react';
 import { useEffect, useState, type KeyboardEvent } from 'react';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
-import type { RunView } from '@station-events';
+import { RUN_VERDICT_WORDS } from '@contract/run-outcome';
+import type { RunRow as RunView } from '../api/run-types';
 import { ErrorNotice } from '@/components/errors/error-notice';
 import { PageHeader } from '@/components/layout/page-header';
 import { paths } from '@/config/paths';
@@ -18,7 +19,7 @@ const verdictChoices = [
   { value: 'pass', label: 'PASS' },
   { value: 'fail', label: 'FAIL' },
   { value: 'error', label: 'ERROR' },
-  { value: 'aborted', label: 'ABORTED' },
+  { value: 'aborted', label: 'STOPPED' },
   { value: 'running', label: 'Testing now' },
 ];
 
@@ -190,7 +191,7 @@ export function RunsScreen() {
                     className={classes.row}
                     data-run-id={r.id}
                     data-verdict={r.verdict}
-                    aria-label={`Run ${r.id}, ${r.serial}, ${r.verdict}`}
+                    aria-label={`Run ${r.id}, ${r.serial}, ${RUN_VERDICT_WORDS[r.verdict]}`}
                     onClick={() => open(r)}
                     onKeyDown={(e) => onRowKey(e, r)}
                   >

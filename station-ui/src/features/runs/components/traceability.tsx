@@ -1,7 +1,8 @@
 import { Alert, Paper, SimpleGrid, Title } from '@mantine/core';
 import { IconAlertTriangle } from '@tabler/icons-react';
 import type { ReactNode } from 'react';
-import type { RunView } from '@station-events';
+import { endReasonWords } from '@contract/run-outcome';
+import type { RunRow as RunView } from '../api/run-types';
 import { formatDay, formatDuration, formatStamp } from '../format';
 import classes from './run-detail.module.css';
 
@@ -40,6 +41,7 @@ export function calibrationLapsed(run: Pick<RunView, 'startedAt' | 'fixtureCalib
  * so a quality question about one unit is answered from this block alone.
  */
 export function Traceability({ run }: { run: RunView }) {
+  const endReason = endReasonWords(run.endReason);
   return (
     <Paper withBorder radius="md" p="md" mb="lg" component="section" aria-labelledby="trace-title">
       <Title order={2} fz="lg" mb="sm" id="trace-title">
@@ -102,8 +104,15 @@ export function Traceability({ run }: { run: RunView }) {
           </Field>
         </FieldGroup>
       </SimpleGrid>
-      {run.errorMessage && (
-        <Alert mt="md" color="signalAmber" variant="light" title="Error recorded with the run" icon={<IconAlertTriangle aria-hidden />} data-testid="trace-error">
+      {(run.errorMessage || endReason) && (
+        <Alert
+          mt="md"
+          color="signalAmber"
+          variant="light"
+          title={endReason ? `Run ended: ${endReason}` : 'Error recorded with the run'}
+          icon={<IconAlertTriangle aria-hidden />}
+          data-testid="trace-error"
+        >
           {run.errorMessage}
         </Alert>
       )}

@@ -1,0 +1,35 @@
+import { describe, expect, it } from 'vitest';
+import type { RefusalCode as ServerRefusalCode } from '../runs/run-refusal';
+import { isRefusalCode, REFUSAL_CODES, type RefusalCode } from './refusal-codes';
+import { DECISIONS, decisionWords, END_REASONS, endReasonWords, RUN_VERDICT_WORDS } from './run-outcome';
+
+// Type-level drift check (run by `tsc --noEmit` over the tests): the contract's refusal codes and the ones the
+// server's RunRefusal accepts are the same set. Fails to compile when either side gains a code alone.
+type Same<A, B> = [A] extends [B] ? ([B] extends [A] ? true : false) : false;
+const refusalCodesAgree: Same<RefusalCode, ServerRefusalCode> = true;
+
+describe('shared contract lists', () => {
+  it('lists each refusal code once and recognises only those', () => {
+    expect(refusalCodesAgree).toBe(true);
+    expect(new Set(REFUSAL_CODES).size).toBe(REFUSAL_CODES.length);
+    expect(isRefusalCode('not_a_serial')).toBe(true);
+    expect(isRefusalCode('unit_not_testable')).toBe(true);
+    expect(isRefusalCode('hello world')).toBe(false);
+    expect(isRefusalCode(undefined)).toBe(false);
+  });
+
+  it('words the four decision statements of ILAC-G8:09/2019 §4.2.3 (non-binary statement)', () => {
+    // ILAC-G8:09/2019 §4.2.3: pass, conditional pass, conditional fail, fail
+    expect(DECISIONS).toEqual(['pass', 'conditional_pass', 'conditional_fail', 'fail']);
+    expect(decisionWords('conditional_pass')).toBe('pass, within uncertainty');
+    expect(decisionWords('conditional_fail')).toBe('fail, within uncertainty');
+    expect(decisionWords(null)).toBeNull();
+    expect(decisionWords('maybe')).toBeNull();
+  });
+
+  it('words every end reason, and a stopped run is "stopped" everywhere', () => {
+    for (const r of END_REASONS) expect(endReasonWords(r)).toMatch(/\w/);
+    expect(endReasonWords(null)).toBeNull();
+    expect(RUN_VERDICT_WORDS.aborted).toBe('stopped');
+  });
+});
