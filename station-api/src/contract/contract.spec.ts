@@ -1,16 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import type { RefusalCode as ServerRefusalCode } from '../runs/run-refusal';
 import { isRefusalCode, REFUSAL_CODES, type RefusalCode } from './refusal-codes';
 import { DECISIONS, decisionWords, END_REASONS, endReasonWords, RUN_VERDICT_WORDS } from './run-outcome';
 
-// Type-level drift check (run by `tsc --noEmit` over the tests): the contract's refusal codes and the ones the
-// server's RunRefusal accepts are the same set. Fails to compile when either side gains a code alone.
-type Same<A, B> = [A] extends [B] ? ([B] extends [A] ? true : false) : false;
-const refusalCodesAgree: Same<RefusalCode, ServerRefusalCode> = true;
 
 describe('shared contract lists', () => {
   it('lists each refusal code once and recognises only those', () => {
-    expect(refusalCodesAgree).toBe(true);
     expect(new Set(REFUSAL_CODES).size).toBe(REFUSAL_CODES.length);
     expect(isRefusalCode('not_a_serial')).toBe(true);
     expect(isRefusalCode('unit_not_testable')).toBe(true);

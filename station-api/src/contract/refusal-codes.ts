@@ -14,6 +14,8 @@ export const REFUSAL_CODES = [
   'retest_limit',
   'station_blocked',
   'station_busy',
+  /** the unit is under test on another station */
+  'unit_busy',
   /** the unit is in repair or scrapped */
   'unit_not_testable',
   /** a passed unit's retest was asked for without the engineer role */

@@ -7,24 +7,15 @@
  * Every payload carries `stationId` and `emittedAt` (ms since the Unix epoch, server clock).
  */
 
+import type { Decision, EndReason } from '../contract/run-outcome';
+
 export type StationState = 'idle' | 'ready' | 'testing' | 'fault' | 'blocked';
 export type RunVerdictName = 'running' | 'pass' | 'fail' | 'error' | 'aborted';
 export type MeasurementVerdictName = 'pass' | 'fail' | 'guard_fail';
-/** ILAC-G8:09/2019 §4.2.3 non-binary decision statement of a measurement */
-export type DecisionStatementName = 'pass' | 'conditional_pass' | 'conditional_fail' | 'fail';
-/**
- * Why a run ended without a judged verdict: stopped by the operator, by a server shutdown, cut off by a
- * server crash (found running at start-up), a fixture or software fault, a physically impossible reading,
- * or a measurement that could not be stored. Judged runs (pass, fail) and running ones have none.
- */
-export type RunEndReasonName =
-  | 'operator_stop'
-  | 'server_shutdown'
-  | 'interrupted'
-  | 'fixture_fault'
-  | 'software_fault'
-  | 'implausible_reading'
-  | 'store_failed';
+/** ILAC-G8:09/2019 §4.2.3 non-binary decision statement of a measurement (list: contract/run-outcome.ts) */
+export type DecisionStatementName = Decision;
+/** Why a run ended without a judged verdict (list and words: contract/run-outcome.ts); null for judged runs */
+export type RunEndReasonName = EndReason;
 
 export interface StationEventBase {
   stationId: number;

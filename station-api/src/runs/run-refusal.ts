@@ -1,25 +1,10 @@
 import { HttpException } from '@nestjs/common';
+import type { RefusalCode } from '../contract/refusal-codes';
+import { REFUSAL_CODES } from '../contract/refusal-codes';
 
-/** Why a scan or a run start was refused; `code` is the machine-readable `details.code` of the API error. */
-export type RefusalCode =
-  /** text that cannot be a serial at all (spaces, symbols no label carries, too long) */
-  | 'not_a_serial'
-  | 'unknown_serial'
-  | 'pattern_mismatch'
-  | 'wrong_lot'
-  | 'already_passed'
-  | 'retest_limit'
-  | 'station_blocked'
-  | 'station_busy'
-  /** the unit is under test on another station */
-  | 'unit_busy'
-  /** the unit is in repair or scrapped */
-  | 'unit_not_testable'
-  /** a passed unit's retest was asked for without the engineer role */
-  | 'override_not_allowed'
-  | 'station_not_found'
-  | 'run_not_found'
-  | 'run_finished';
+/** Why a scan or a run start was refused: the one list is contract/refusal-codes.ts (the screens read it too). */
+export type { RefusalCode };
+export { REFUSAL_CODES };
 
 /** HTTP status of each refusal: the one place refusals are mapped to HTTP. */
 export const REFUSAL_STATUS: Record<RefusalCode, number> = {
@@ -39,7 +24,6 @@ export const REFUSAL_STATUS: Record<RefusalCode, number> = {
   run_finished: 409,
 };
 
-export const REFUSAL_CODES = Object.keys(REFUSAL_STATUS) as RefusalCode[];
 
 /**
  * A refusal before any power is applied, with a message for the person at the station. An HttpException,

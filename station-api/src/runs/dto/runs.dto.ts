@@ -3,6 +3,7 @@ import { Transform, Type } from 'class-transformer';
 import { Equals, IsBoolean, IsIn, IsInt, IsISO8601, IsString, Max, MaxLength, Min, MinLength } from 'class-validator';
 import type { LimitView, MeasurementView, RunView, StepOutline, UnitView } from '../../realtime/station-events';
 import { Optional } from '../../common/validation/presence';
+import { DECISIONS as DECISION_STATEMENTS, END_REASONS as RUN_END_REASONS } from '../../contract/run-outcome';
 
 const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 
@@ -31,16 +32,7 @@ export class StartRunDto extends ScanDto {
 }
 
 export const RUN_VERDICTS = ['running', 'pass', 'fail', 'error', 'aborted'] as const;
-export const RUN_END_REASONS = [
-  'operator_stop',
-  'server_shutdown',
-  'interrupted',
-  'fixture_fault',
-  'software_fault',
-  'implausible_reading',
-  'store_failed',
-] as const satisfies readonly NonNullable<RunView['endReason']>[];
-export const DECISION_STATEMENTS = ['pass', 'conditional_pass', 'conditional_fail', 'fail'] as const satisfies readonly NonNullable<MeasurementView['decision']>[];
+export { DECISIONS as DECISION_STATEMENTS, END_REASONS as RUN_END_REASONS } from '../../contract/run-outcome';
 
 export class RunsQueryDto {
   @ApiPropertyOptional() @Optional() @Type(() => Number) @IsInt() @Min(1) stationId?: number;
