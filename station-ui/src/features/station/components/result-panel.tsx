@@ -40,12 +40,28 @@ function lookStyle(verdict: FinishedVerdict): CSSProperties {
  * formatter adds a digit where rounding would hide the failure); a guard-band failure names the
  * acceptance limits it missed.
  */
-export function describeFailure(m: MeasurementView): string {
+export function failureParts(m: MeasurementView): { name: string; value: string; limits: string; guard: string } {
   const f = formatMeasured(m);
   const value = f.value === '—' ? 'no reading' : `${f.value}${f.unit ? ` ${f.unit}` : ''}`;
   const guard =
-    m.verdict !== 'guard_fail' ? '' : f.accept ? ` (inside spec, outside guard band ${f.accept})` : ' (inside spec, outside guard band)';
-  return `${m.name}: ${value}, limits ${f.spec}${guard}`;
+    m.verdict !== 'guard_fail' ? '' : f.accept ? `(inside spec, outside guard band ${f.accept})` : '(inside spec, outside guard band)';
+  return { name: m.name, value, limits: `limits ${f.spec}`, guard };
+}
+
+export function describeFailure(m: MeasurementView): string {
+  const p = failureParts(m);
+  return `${p.name}: ${p.value}, ${p.limits}${p.guard ? ` ${p.guard}` : ''}`;
+}
+
+/** One failure line; a value and its limits never break across lines ("4.875 … / 5.125 V" misleads). */
+function FailureLine({ m }: { m: MeasurementView }) {
+  const p = failureParts(m);
+  return (
+    <span className={classes.failure} data-testid="verdict-failure">
+      {p.name}: <span className={classes.keep}>{p.value}</span>, <span className={classes.keep}>{p.limits}</span>
+      {p.guard ? <> {p.guard}</> : null}
+    </span>
+  );
 }
 
 /** "attempt 2 of 3", or "attempt 2" while the plan's allowance is not known. */
@@ -83,7 +99,9 @@ function TestingView({ live, maxAttempts, abortArmed, aborting, onAbort }: Testi
   return (
     <section className={classes.panel} data-mode="testing" aria-label="Test in progress">
       <div className={classes.testingHead}>
-        <StationStateMark state="testing" sizePx={26} />
+        <span className={classes.testingMark}>
+          <StationStateMark state="testing" sizePx={26} />
+        </span>
         <span className={classes.serial} data-testid="testing-serial">
           {live.run.serial}
         </span>
@@ -162,11 +180,7 @@ function VerdictView({ live, maxAttempts, print, onPrint, repair, onSendToRepair
       lines = [`Passed all ${checks} checks in ${formatDuration(f.durationMs)}.`];
       break;
     case 'fail': {
-      const shown = f.failures.slice(0, 2).map((m) => (
-        <span key={m.id} className={classes.failure} data-testid="verdict-failure">
-          {describeFailure(m)}
-        </span>
-      ));
+      const shown = f.failures.slice(0, 2).map((m) => <FailureLine key={m.id} m={m} />);
       const more = f.failures.length - shown.length;
       lines = [
         ...shown,

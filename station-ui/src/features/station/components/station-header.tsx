@@ -31,9 +31,9 @@ export function StationHeader({ status, link, statusFailed = false, muted, onTog
   // a green READY only while the screen hears the server: a stale state must not look like a live one
   const linkShown: LiveLinkState = statusFailed ? 'lost' : link;
   return (
-    <header className={classes.header}>
+    <header className={classes.header} data-testid="station-header">
       <div className={classes.headerStation}>
-        <span className={classes.stationCode} data-testid="station-code">
+        <span className={classes.stationCode} data-testid="station-code" title={status?.stationName}>
           {status?.stationCode ?? '…'}
         </span>
         <span className={classes.stationName}>{status?.stationName}</span>
@@ -63,9 +63,11 @@ export function StationHeader({ status, link, statusFailed = false, muted, onTog
           size="md"
           onClick={onToggleMuted}
           aria-pressed={muted}
+          // the words may be hidden on a narrow screen (only the icon shows); the name stays
+          aria-label={muted ? 'Sound off' : 'Sound on'}
           leftSection={muted ? <IconVolumeOff size={20} aria-hidden /> : <IconVolume size={20} aria-hidden />}
         >
-          {muted ? 'Sound off' : 'Sound on'}
+          <span className={classes.soundLabel}>{muted ? 'Sound off' : 'Sound on'}</span>
         </Button>
         <Button variant="default" size="md" onClick={onChangeStation}>
           Change station

@@ -279,7 +279,7 @@ function StationConsole({ stationId, onChangeStation, outsideDialogOpen }: Stati
     <div className={classes.screen}>
       <LiveLinkBanner link={link} />
       <StationHeader status={status.data} link={link} statusFailed={status.isError && !status.data} muted={sound.muted} onToggleMuted={() => { sound.toggleMuted(); focusScan(); }} onChangeStation={onChangeStation} />
-      <div className={classes.scanRow}>
+      <div className={classes.scanRow} data-testid="scan-row">
         <ScanField ref={scanRef} value={scanText} onValueChange={setScanText} onScan={onScan} busy={scan.isPending} onKeyActivity={sound.unlock} onBlurToNowhere={() => !anyDialog && focusScan()} />
         <ShiftCounters stationId={stationId} />
       </div>
