@@ -97,4 +97,12 @@ describe('SafetyKeyGuard (the safety prompt key rules)', () => {
     expect(g.key({ key: 'Enter' }, 0)).toEqual({ kind: 'pass' });
     expect(g.key({ key: 'K' }, 0)).toEqual({ kind: 'pass' });
   });
+
+  it('a label whose start reached the scan field before the prompt opened comes out whole', () => {
+    const g = opened(0);
+    expect(g.key({ key: '8' }, 1_000)).toEqual({ kind: 'burst_start' });
+    g.prepend('K5A-264');
+    const out = ['-', '0', '0', '0', '1', '8', 'Enter'].map((key, i) => g.key({ key }, 1_005 + i * 5));
+    expect(out.at(-1)).toEqual({ kind: 'burst_scan', serial: 'K5A-2648-00018' });
+  });
 });

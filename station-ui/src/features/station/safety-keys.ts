@@ -108,6 +108,14 @@ export class SafetyKeyGuard {
     return { kind: 'swallow' };
   }
 
+  /**
+   * Puts text before the collected characters: the start of a label that reached the scan field before
+   * the prompt opened (a scanner already typing while the last scan was being checked).
+   */
+  prepend(text: string): void {
+    if (this.#buffer !== null) this.#buffer = text + this.#buffer;
+  }
+
   /** Called by a timer: a burst that has paused is a person typing; it ends as text for the scan field. */
   pause(now: number): GuardAction | null {
     if (this.#buffer === null || now - this.#lastActivityAt < BURST_PAUSE_MS) return null;

@@ -8,7 +8,7 @@ export interface ScanFieldProps {
   onValueChange: (text: string) => void;
   /** Called with the trimmed serial when Enter is pressed on a non-empty field */
   onScan: (serial: string) => void;
-  /** While a scan is being checked; the field keeps focus and text typed meanwhile waits */
+  /** While a scan is being checked (shown in the field); a new scan meanwhile replaces it */
   busy?: boolean;
   /** Called on every key press, so the audio can be unlocked by a user gesture */
   onKeyActivity?: () => void;
@@ -26,7 +26,8 @@ export const ScanField = forwardRef<HTMLInputElement, ScanFieldProps>(function S
   const submit = (e: FormEvent) => {
     e.preventDefault();
     const serial = text.trim();
-    if (!serial || busy) return;
+    // also while the last scan is being checked: the newer label wins (the older one gets no safety prompt)
+    if (!serial) return;
     setText('');
     onScan(serial);
   };

@@ -84,6 +84,11 @@ function serve() {
         const serial = (body as { serial: string }).serial;
         if (serial === 'K5A-2648-00017') return jsonResponse(200, scanResult);
         if (serial === 'K5A-2648-00018') return jsonResponse(200, { ...scanResult, unit: { ...sampleUnit, id: 8, serial } });
+        if (serial === 'K5A-2648-00021') {
+          // a slow check: the next label arrives before its answer
+          await new Promise((r) => setTimeout(r, 300));
+          return jsonResponse(200, { ...scanResult, unit: { ...sampleUnit, id: 21, serial } });
+        }
         if (serial === 'K5A-2648-00019') return jsonResponse(200, { ...scanResult, attempt: 3, unit: { ...sampleUnit, id: 9, serial, state: 'failed', testCount: 2 } });
         if (serial === 'K5A-2648-00020') {
           return jsonResponse(409, { statusCode: 409, error: 'Conflict', message: 'K5A-2648-00020 has been scrapped; it cannot be tested again. Set it aside.', details: { code: 'unit_not_testable', unitState: 'scrapped' } });
@@ -319,6 +324,23 @@ describe('StationScreen', () => {
     await waitFor(() => expect(calls).toContainEqual({ method: 'POST', path: '/api/stations/1/runs', body: { serial: 'K5A-2648-00018', safetyConfirmed: true } }));
     expect(calls.filter((c) => c.path === '/api/stations/1/runs')).toHaveLength(1);
   });
+
+  it('a label scanned while the last one is still being checked wins: only it gets the safety prompt', async () => {
+    const { user, field } = await openStation();
+    await user.type(field, 'K5A-2648-00021{Enter}');
+    await user.type(field, 'K5A-2648-00018{Enter}');
+    const dialog = await screen.findByRole('dialog', { name: 'Before power is applied' }, { timeout: 3_000 });
+    // however the second label's keys fell (into the field, into the prompt), it is scanned whole
+    expect(calls.filter((c) => c.path === '/api/stations/1/scan').map((c) => (c.body as { serial: string }).serial)).toEqual([
+      'K5A-2648-00021',
+      'K5A-2648-00018',
+    ]);
+    await waitFor(() => expect(dialog).toHaveTextContent('K5A-2648-00018'));
+    await act(() => new Promise((r) => setTimeout(r, 500)));
+    expect(screen.getByRole('dialog', { name: 'Before power is applied' })).toHaveTextContent('K5A-2648-00018');
+    expect(screen.queryByText('K5A-2648-00021')).toBeNull();
+    expect(calls.some((c) => c.path === '/api/stations/1/runs')).toBe(false);
+  }, 15_000);
 
   it('a second scan during a run is refused in its own place; the run, then its verdict, keep the panel', async () => {
     const { user, field } = await openStation();

@@ -230,19 +230,37 @@ function StationConsole({ stationId, onChangeStation, outsideDialogOpen }: Stati
     focusScan();
   };
 
+  const scanTextRef = useRef(scanText);
+  scanTextRef.current = scanText;
   const onScanRef = useRef(onScan);
   onScanRef.current = onScan;
   const safetyKeys = useSafetyKeys(dialog === 'safety', {
     onConfirm: confirmSafety,
     onCancel: cancelSafety,
     // a label scanned into the prompt: this unit gets no power; the new scan is collected and then sent
-    onBurstStart: cancelSafety,
+    onBurstStart: () => {
+      cancelSafety();
+      // a scanner already typing when the prompt opened left the start of its label in the field
+      const head = scanTextRef.current;
+      setScanText('');
+      return head;
+    },
     onBurstScan: (serial) => onScanRef.current(serial),
     onBurstText: (text) => {
       setScanText((t) => t + text);
       focusScan();
     },
-    onHint: setSafetyHint,
+    onHint: (hint) => {
+      // an Enter that ends a label typed into the field before the prompt opened: that label is a new scan
+      const typed = scanTextRef.current.trim();
+      if (hint === 'not_enter' && typed) {
+        cancelSafety();
+        setScanText('');
+        onScanRef.current(typed);
+        return;
+      }
+      setSafetyHint(hint);
+    },
   });
 
   const pointerConfirm = () => {

@@ -4,8 +4,11 @@ import { BURST_PAUSE_MS, SafetyKeyGuard, type GuardAction, type GuardHint } from
 export interface SafetyKeyHandlers {
   onConfirm: () => void;
   onCancel: () => void;
-  /** A character arrived while the prompt was open: close it, no power */
-  onBurstStart: () => void;
+  /**
+   * A character arrived while the prompt was open: close it, no power. Returns text already in the scan
+   * field (the start of the same label), which the collected scan then begins with.
+   */
+  onBurstStart: () => string | void;
   /** The new scan is complete: send it to the scan flow */
   onBurstScan: (serial: string) => void;
   /** A person typed while the prompt was open: this text goes into the scan field */
@@ -37,8 +40,11 @@ export function useSafetyKeys(opened: boolean, handlers: SafetyKeyHandlers): { p
           return h.onConfirm();
         case 'cancel':
           return h.onCancel();
-        case 'burst_start':
-          return h.onBurstStart();
+        case 'burst_start': {
+          const head = h.onBurstStart();
+          if (head) guard.current.prepend(head);
+          return;
+        }
         case 'burst_scan':
           return h.onBurstScan(a.serial);
         case 'burst_text':
