@@ -1,4 +1,7 @@
-export { digitsFor, FLAG_UNIT, formatLimits, formatValue, guardDiffers } from '@/lib/measurement-format';
+/*
+ * Times on the station screen. Values and limits are written by the shared formatter only
+ * (`@contract/value-format`: formatMeasured, formatValue, formatLimits).
+ */
 
 /** A run time as "8.4 s" under a minute, "1:05" (min:s) above. */
 export function formatDuration(ms: number): string {

@@ -11,6 +11,7 @@ describe('describeRefusal', () => {
   it('gives every refusal code of the contract its own headline', () => {
     const codes: [RefusalCode, number][] = [
       ['unknown_serial', 404],
+      ['not_a_serial', 422],
       ['pattern_mismatch', 422],
       ['wrong_lot', 409],
       ['already_passed', 409],
@@ -69,5 +70,20 @@ describe('describeRefusal', () => {
     expect(describeRefusal(new ApiError(400, 'Bad Request', 'serial must be shorter than or equal to 64 characters'), ctx).title).toBe('Scan not read');
     expect(describeRefusal(new ApiError(0, 'Network Error', 'x'), ctx).title).toBe('Station server not reachable');
     expect(describeRefusal(new Error('boom'), ctx).code).toBe('other');
+  });
+
+  it('text that is not a serial at all gets its own title, without "a OB-…" grammar', () => {
+    const m = describeRefusal(refusal(422, 'not_a_serial'), { serial: 'hello world', partNumber: 'OB-BK0503' });
+    expect(m.title).toBe('Not a serial');
+    expect(m.detail).toBe('“hello world” is not a unit serial. Scan the label on the unit itself.');
+    const p = describeRefusal(refusal(422, 'pattern_mismatch'), { serial: 'XYZ-1', partNumber: 'OB-BK0503' });
+    expect(p.detail).not.toMatch(/\ba OB-/);
+    expect(describeRefusal(refusal(422, 'pattern_mismatch'), { serial: 'XYZ-1' }).detail).not.toContain('a this product');
+  });
+
+  it("a unit that cannot be tested is titled by its state: scrapped is not 'held for repair'", () => {
+    expect(describeRefusal(refusal(409, 'unit_not_testable', { unitState: 'scrapped' }), ctx).title).toBe('Unit scrapped: set it aside');
+    expect(describeRefusal(refusal(409, 'unit_not_testable', { unitState: 'in_repair' }), ctx).title).toBe('Unit held for repair');
+    expect(describeRefusal(refusal(409, 'unit_not_testable'), ctx).title).toBe('Unit cannot be tested');
   });
 });

@@ -3,6 +3,8 @@ import { isApiError } from '@/lib/api-client';
 /** Why the server would not start a test on a scanned unit (`details.code`, docs/architecture.md). */
 export type RefusalCode =
   | 'unknown_serial'
+  /** text that cannot be a serial at all (spaces, characters no label carries) */
+  | 'not_a_serial'
   | 'pattern_mismatch'
   | 'wrong_lot'
   | 'already_passed'
@@ -16,7 +18,7 @@ export type RefusalCode =
 /** What the operator reads after a refused scan: a headline for two metres away and one plain sentence. */
 export interface RefusalMessage {
   /** `details.code`, or a local kind when the server sent none */
-  code: RefusalCode | 'invalid_scan' | 'no_server' | 'other';
+  code: RefusalCode | 'invalid_scan' | 'no_server' | 'no_link' | 'other';
   title: string;
   detail: string;
   /** True when an engineer may test the unit anyway after giving a reason */
@@ -66,11 +68,20 @@ export function describeRefusal(error: unknown, ctx: RefusalContext): RefusalMes
         title: 'Unknown serial',
         detail: `${serial} is not registered. Check the label; if it is right, ask your shift lead to register the unit.`,
       };
+    case 'not_a_serial':
+      return {
+        code: 'not_a_serial',
+        title: 'Not a serial',
+        detail: `“${serial}” is not a unit serial. Scan the label on the unit itself.`,
+      };
     case 'pattern_mismatch':
       return {
         code: 'pattern_mismatch',
         title: 'Not a serial of this lot',
-        detail: `“${serial}” does not have the form of a ${ctx.partNumber ?? 'this product'} serial. Scan the label on the unit itself.`,
+        // no article before the part number: "a OB-…" reads wrong, and the part number may be unknown
+        detail: ctx.partNumber
+          ? `“${serial}” does not have the form of the serials of ${ctx.partNumber}. Scan the label on the unit itself.`
+          : `“${serial}” does not have the form of this product's serials. Scan the label on the unit itself.`,
       };
     case 'wrong_lot': {
       const unitLot = text(d.unitLot);
@@ -115,8 +126,12 @@ export function describeRefusal(error: unknown, ctx: RefusalContext): RefusalMes
     }
     case 'station_busy':
       return { code: 'station_busy', title: 'Station busy', detail: 'A test is running on this station. Wait for its result, then scan again.' };
-    case 'unit_not_testable':
-      return { code: 'unit_not_testable', title: 'Unit held for repair', detail: error.message };
+    case 'unit_not_testable': {
+      // the title follows the unit's state: a scrapped unit is not "held for repair"
+      const state = text(d.unitState);
+      const title = state === 'scrapped' ? 'Unit scrapped: set it aside' : state === 'in_repair' ? 'Unit held for repair' : 'Unit cannot be tested';
+      return { code: 'unit_not_testable', title, detail: error.message };
+    }
     case 'override_not_allowed':
       return {
         code: 'override_not_allowed',

@@ -1,13 +1,14 @@
 import { Button, Kbd, Loader, Progress } from '@mantine/core';
+import { formatMeasured } from '@contract/value-format';
 import type { MeasurementView } from '@station-events';
 import { useEffect, useState, type CSSProperties, type ReactNode } from 'react';
 import { StationStateMark } from '@/components/station-state';
 import { VerdictShape } from '@/components/verdict';
+import type { LiveLinkState } from '@/lib/socket';
 import { verdictLooks } from '@/theme';
 import type { StationStatus } from '../api/get-station-status';
-import { formatClock, formatDuration, formatLimits, formatValue } from '../format';
+import { formatClock, formatDuration } from '../format';
 import { completedSteps, progressFraction, type FinishedVerdict, type LiveRun } from '../live-run';
-import type { RefusalMessage } from '../refusal-messages';
 import type { PrintState } from '../hooks/use-print-repair-tag';
 import classes from './result-panel.module.css';
 
@@ -34,12 +35,38 @@ function lookStyle(verdict: FinishedVerdict): CSSProperties {
   } as CSSProperties;
 }
 
-/** "Output voltage at 3 A: 4.612 V, limits 4.900 … 5.100 V" */
+/**
+ * "Efficiency at 1.5 A: 92.96 %, limits ≥ 93.00 %": value and limits at the same digits (the shared
+ * formatter adds a digit where rounding would hide the failure); a guard-band failure names the
+ * acceptance limits it missed.
+ */
+export function failureParts(m: MeasurementView): { name: string; value: string; limits: string; guard: string } {
+  const f = formatMeasured(m);
+  const value = f.value === '—' ? 'no reading' : `${f.value}${f.unit ? ` ${f.unit}` : ''}`;
+  const guard =
+    m.verdict !== 'guard_fail' ? '' : f.accept ? `(inside spec, outside guard band ${f.accept})` : '(inside spec, outside guard band)';
+  return { name: m.name, value, limits: `limits ${f.spec}`, guard };
+}
+
 export function describeFailure(m: MeasurementView): string {
-  const v = formatValue(m.value, m.quantity, m.unit);
-  const value = v.text === '—' ? 'no reading' : `${v.text}${v.unit ? ` ${v.unit}` : ''}`;
-  const guard = m.verdict === 'guard_fail' ? ' (inside spec, outside guard band)' : '';
-  return `${m.name}: ${value}, limits ${formatLimits(m.lowLimit, m.highLimit, m.quantity, m.unit)}${guard}`;
+  const p = failureParts(m);
+  return `${p.name}: ${p.value}, ${p.limits}${p.guard ? ` ${p.guard}` : ''}`;
+}
+
+/** One failure line; a value and its limits never break across lines ("4.875 … / 5.125 V" misleads). */
+function FailureLine({ m }: { m: MeasurementView }) {
+  const p = failureParts(m);
+  return (
+    <span className={classes.failure} data-testid="verdict-failure">
+      {p.name}: <span className={classes.keep}>{p.value}</span>, <span className={classes.keep}>{p.limits}</span>
+      {p.guard ? <> {p.guard}</> : null}
+    </span>
+  );
+}
+
+/** "attempt 2 of 3", or "attempt 2" while the plan's allowance is not known. */
+export function attemptWords(attempt: number, maxAttempts: number | undefined): string {
+  return maxAttempts !== undefined ? `attempt ${attempt} of ${maxAttempts}` : `attempt ${attempt}`;
 }
 
 function Elapsed({ sinceMs, stopped }: { sinceMs: number; stopped?: boolean }) {
@@ -58,13 +85,13 @@ function Elapsed({ sinceMs, stopped }: { sinceMs: number; stopped?: boolean }) {
 
 interface TestingViewProps {
   live: LiveRun;
+  maxAttempts?: number;
   abortArmed: boolean;
   aborting: boolean;
   onAbort: () => void;
-  notice?: ReactNode;
 }
 
-function TestingView({ live, abortArmed, aborting, onAbort, notice }: TestingViewProps) {
+function TestingView({ live, maxAttempts, abortArmed, aborting, onAbort }: TestingViewProps) {
   const total = live.steps.length;
   const index = live.currentStepIndex;
   const current = index !== null ? live.steps[index] : undefined;
@@ -72,17 +99,22 @@ function TestingView({ live, abortArmed, aborting, onAbort, notice }: TestingVie
   return (
     <section className={classes.panel} data-mode="testing" aria-label="Test in progress">
       <div className={classes.testingHead}>
-        <StationStateMark state="testing" sizePx={26} />
+        <span className={classes.testingMark}>
+          <StationStateMark state="testing" sizePx={26} />
+        </span>
         <span className={classes.serial} data-testid="testing-serial">
           {live.run.serial}
         </span>
+        <span className={classes.attempt} data-testid="testing-attempt">
+          {attemptWords(live.run.attempt, maxAttempts)}
+        </span>
         <Elapsed sinceMs={live.seenAtMs} />
         {abortArmed ? (
-          <Button color="signalRed" size="lg" onClick={onAbort} loading={aborting} data-testid="abort-confirm">
+          <Button color="signalRed" size="lg" onClick={onAbort} loading={aborting} data-testid="abort-confirm" className={classes.stopButton}>
             Press&nbsp;<Kbd>Esc</Kbd>&nbsp;again to stop
           </Button>
         ) : (
-          <Button variant="default" size="lg" onClick={onAbort} loading={aborting}>
+          <Button variant="default" size="lg" onClick={onAbort} loading={aborting} className={classes.stopButton}>
             <Kbd>Esc</Kbd>&nbsp;Stop the test
           </Button>
         )}
@@ -100,35 +132,63 @@ function TestingView({ live, abortArmed, aborting, onAbort, notice }: TestingVie
         </span>
       </div>
       <Progress value={pct} size={18} radius="sm" color="copper" aria-label="Test progress" transitionDuration={200} />
-      {notice && <div className={classes.notice}>{notice}</div>}
     </section>
   );
 }
 
+/** Where sending a failed unit to repair stands. */
+export type RepairSendState = { kind: 'idle' } | { kind: 'sending' } | { kind: 'sent' } | { kind: 'failed'; message: string };
+
 interface VerdictViewProps {
   live: LiveRun;
+  maxAttempts?: number;
   print: PrintState;
   onPrint: () => void;
+  repair: RepairSendState;
+  onSendToRepair: () => void;
 }
 
-function VerdictView({ live, print, onPrint }: VerdictViewProps) {
+/**
+ * What to do with a failed unit, in the words of the retest policy: with attempts left it stays at the
+ * station (re-seat and test again, or send it to repair); with none left it goes to the repair queue.
+ * The words never claim the unit is on the queue when it is not.
+ */
+function failAdvice(attempt: number, maxAttempts: number | undefined, repair: RepairSendState): { text: string; canSend: boolean } {
+  if (repair.kind === 'sent') return { text: 'Sent to the repair queue. Put the unit on the repair rack.', canSend: false };
+  if (maxAttempts !== undefined && attempt >= maxAttempts) {
+    return { text: `No attempts left: the unit goes to the repair queue. Put it on the repair rack.`, canSend: false };
+  }
+  if (maxAttempts !== undefined) {
+    const left = maxAttempts - attempt;
+    return {
+      text: `${left} ${left === 1 ? 'attempt' : 'attempts'} left: re-seat the unit and test it again, or send it to repair.`,
+      canSend: true,
+    };
+  }
+  return { text: 'Re-seat the unit and test it again, or send it to repair.', canSend: true };
+}
+
+function VerdictView({ live, maxAttempts, print, onPrint, repair, onSendToRepair }: VerdictViewProps) {
   const f = live.finished!;
   const look = verdictLooks[f.verdict];
   const word = operatorVerdictWords[f.verdict];
   const checks = Object.keys(live.measurements).length;
+  const advice = f.verdict === 'fail' ? failAdvice(live.run.attempt, maxAttempts, repair) : null;
   let lines: ReactNode[];
   switch (f.verdict) {
     case 'pass':
       lines = [`Passed all ${checks} checks in ${formatDuration(f.durationMs)}.`];
       break;
     case 'fail': {
-      const shown = f.failures.slice(0, 2).map((m) => (
-        <span key={m.id} className={classes.failure}>
-          {describeFailure(m)}
-        </span>
-      ));
+      const shown = f.failures.slice(0, 2).map((m) => <FailureLine key={m.id} m={m} />);
       const more = f.failures.length - shown.length;
-      lines = [...shown, ...(more > 0 ? [`and ${more} more, marked in the list below.`] : []), 'The unit is on the repair queue.'];
+      lines = [
+        ...shown,
+        ...(more > 0 ? [`and ${more} more, marked in the list below.`] : []),
+        <strong key="advice" data-testid="verdict-advice">
+          {advice!.text}
+        </strong>,
+      ];
       break;
     }
     case 'error':
@@ -146,13 +206,20 @@ function VerdictView({ live, print, onPrint }: VerdictViewProps) {
       aria-label={`Result: ${word}`}
       data-testid="verdict"
     >
-      <div className={classes.verdictRow}>
-        <VerdictShape shape={look.shape} size={108} className={classes.verdictShape} />
-        <span className={classes.verdictWord} data-testid="verdict-word">
-          {word}
-        </span>
-        <div className={classes.verdictDetails}>
-          <span className={classes.verdictSerial}>{live.run.serial}</span>
+      <div className={classes.verdictGrid}>
+        <div className={classes.verdictHead}>
+          <VerdictShape shape={look.shape} size={96} className={classes.verdictShape} />
+          <span className={classes.verdictWord} data-testid="verdict-word">
+            {word}
+          </span>
+        </div>
+        <div className={classes.verdictDetails} data-testid="verdict-details">
+          <span className={classes.verdictSerial}>
+            <span>{live.run.serial}</span>
+            <span className={classes.verdictAttempt} data-testid="verdict-attempt">
+              {attemptWords(live.run.attempt, maxAttempts)}
+            </span>
+          </span>
           {lines.map((l, i) => (
             <span key={i} className={classes.verdictLine}>
               {l}
@@ -160,18 +227,28 @@ function VerdictView({ live, print, onPrint }: VerdictViewProps) {
           ))}
         </div>
         {f.verdict === 'fail' && (
-          <div className={classes.printBox}>
+          <div className={classes.actions}>
             <Button size="lg" color="graphite.9" onClick={onPrint} loading={print.kind === 'loading'} data-testid="print-tag">
               Print repair tag&nbsp;<Kbd size="md">{PRINT_KEY}</Kbd>
             </Button>
+            {advice?.canSend && (
+              <Button size="lg" variant="white" color="graphite.9" onClick={onSendToRepair} loading={repair.kind === 'sending'} data-testid="send-to-repair">
+                Send to repair
+              </Button>
+            )}
             {print.kind === 'sent' && (
-              <a href={print.url} target="_blank" rel="noreferrer" className={classes.printNote}>
+              <a href={print.url} target="_blank" rel="noreferrer" className={classes.actionNote}>
                 Tag sent to the printer · open it
               </a>
             )}
             {print.kind === 'failed' && (
-              <span className={classes.printNote} role="alert">
+              <span className={classes.actionNote} role="alert">
                 {print.message}
+              </span>
+            )}
+            {repair.kind === 'failed' && (
+              <span className={classes.actionNote} role="alert">
+                {repair.message}
               </span>
             )}
           </div>
@@ -181,26 +258,32 @@ function VerdictView({ live, print, onPrint }: VerdictViewProps) {
   );
 }
 
-function RefusalView({ refusal }: { refusal: RefusalMessage }) {
-  return (
-    <section className={classes.panel} data-mode="refusal" data-refusal={refusal.code} role="alert" data-testid="refusal">
-      <div className={classes.refusalRow}>
-        <VerdictShape shape="triangle-exclamation" size={72} className={classes.refusalShape} />
-        <div>
-          <div className={classes.refusalTitle}>{refusal.title}</div>
-          <div className={classes.refusalDetail}>{refusal.detail}</div>
-          <div className={classes.refusalHint}>No test was started. Scan the next unit when ready.</div>
-        </div>
-      </div>
-    </section>
-  );
-}
-
-function StationView({ status }: { status: StationStatus | undefined }) {
-  if (!status) {
+function StationView({ status, link, statusFailed }: { status: StationStatus | undefined; link: LiveLinkState; statusFailed: boolean }) {
+  // never "Scan a unit" (or a green READY) while the screen cannot hear the server
+  if (link === 'lost' || link === 'refused' || statusFailed) {
     return (
-      <section className={classes.panel} data-mode="loading">
-        <Loader color="copper" aria-label="Loading the station" />
+      <section className={classes.panel} data-mode="offline" data-testid="offline" role="status">
+        <div className={classes.notReadyRow}>
+          <VerdictShape shape="triangle-exclamation" size={56} className={classes.offlineShape} />
+          <div>
+            <div className={classes.offlineTitle}>Server not reachable</div>
+            <div className={classes.readyDetail}>
+              {link === 'refused'
+                ? 'The station server refused this screen: sign in again.'
+                : 'Do not test now. The screen reconnects by itself; check the network cable if this stays.'}
+            </div>
+          </div>
+        </div>
+      </section>
+    );
+  }
+  if (!status || link === 'connecting') {
+    return (
+      <section className={classes.panel} data-mode="loading" data-testid="connecting">
+        <div className={classes.connectingRow}>
+          <Loader color="copper" aria-label="Connecting to the station server" />
+          <span className={classes.readyDetail}>Connecting to the station server…</span>
+        </div>
       </section>
     );
   }
@@ -235,34 +318,33 @@ function StationView({ status }: { status: StationStatus | undefined }) {
 
 export interface ResultPanelProps {
   live: LiveRun | null | undefined;
-  refusal: RefusalMessage | null;
   starting: boolean;
   status: StationStatus | undefined;
+  /** The status could not be fetched (the server does not answer) */
+  statusFailed?: boolean;
+  link: LiveLinkState;
+  /** Attempts the run's plan allows, when known */
+  maxAttempts?: number;
   abortArmed: boolean;
   aborting: boolean;
   onAbort: () => void;
   print: PrintState;
   onPrint: () => void;
+  repair: RepairSendState;
+  onSendToRepair: () => void;
 }
 
 /**
  * The big panel under the scan field: what the operator needs at a glance. A test in progress wins; then
- * a refused scan; then the start being sent; then the last verdict (it stays until the next scan); then
- * the station's own state.
+ * the start being sent; then the last verdict (it stays until the next scan); then the station's own
+ * state. Refused scans never come here: they have their own place (scan-notice.tsx), so a verdict is
+ * never hidden by one.
  */
-export function ResultPanel({ live, refusal, starting, status, abortArmed, aborting, onAbort, print, onPrint }: ResultPanelProps) {
+export function ResultPanel(props: ResultPanelProps) {
+  const { live, starting, status, statusFailed = false, link, maxAttempts, abortArmed, aborting, onAbort, print, onPrint, repair, onSendToRepair } = props;
   if (live && !live.finished) {
-    return (
-      <TestingView
-        live={live}
-        abortArmed={abortArmed}
-        aborting={aborting}
-        onAbort={onAbort}
-        notice={refusal ? `${refusal.title}: ${refusal.detail}` : undefined}
-      />
-    );
+    return <TestingView live={live} maxAttempts={maxAttempts} abortArmed={abortArmed} aborting={aborting} onAbort={onAbort} />;
   }
-  if (refusal) return <RefusalView refusal={refusal} />;
   if (starting) {
     return (
       <section className={classes.panel} data-mode="starting">
@@ -272,6 +354,8 @@ export function ResultPanel({ live, refusal, starting, status, abortArmed, abort
       </section>
     );
   }
-  if (live?.finished) return <VerdictView live={live} print={print} onPrint={onPrint} />;
-  return <StationView status={status} />;
+  if (live?.finished) {
+    return <VerdictView live={live} maxAttempts={maxAttempts} print={print} onPrint={onPrint} repair={repair} onSendToRepair={onSendToRepair} />;
+  }
+  return <StationView status={status} link={link} statusFailed={statusFailed} />;
 }

@@ -1,11 +1,14 @@
 import { TextInput } from '@mantine/core';
-import { forwardRef, useState, type FormEvent } from 'react';
+import { forwardRef, type FormEvent } from 'react';
 import classes from './station-screen.module.css';
 
 export interface ScanFieldProps {
+  /** The text in the field (kept by the console, which may put text typed into the safety prompt here) */
+  value: string;
+  onValueChange: (text: string) => void;
   /** Called with the trimmed serial when Enter is pressed on a non-empty field */
   onScan: (serial: string) => void;
-  /** While a scan is being checked; the field keeps focus and text typed meanwhile waits */
+  /** While a scan is being checked (shown in the field); a new scan meanwhile replaces it */
   busy?: boolean;
   /** Called on every key press, so the audio can be unlocked by a user gesture */
   onKeyActivity?: () => void;
@@ -17,15 +20,14 @@ export interface ScanFieldProps {
  * next label starts fresh, and it asks to get focus back when focus drops to nowhere.
  */
 export const ScanField = forwardRef<HTMLInputElement, ScanFieldProps>(function ScanField(
-  { onScan, busy = false, onKeyActivity, onBlurToNowhere },
+  { value: text, onValueChange: setText, onScan, busy = false, onKeyActivity, onBlurToNowhere },
   ref,
 ) {
-  const [text, setText] = useState('');
-
   const submit = (e: FormEvent) => {
     e.preventDefault();
     const serial = text.trim();
-    if (!serial || busy) return;
+    // also while the last scan is being checked: the newer label wins (the older one gets no safety prompt)
+    if (!serial) return;
     setText('');
     onScan(serial);
   };

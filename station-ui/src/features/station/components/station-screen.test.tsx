@@ -83,6 +83,16 @@ function serve() {
       if (method === 'POST' && path === '/api/stations/1/scan') {
         const serial = (body as { serial: string }).serial;
         if (serial === 'K5A-2648-00017') return jsonResponse(200, scanResult);
+        if (serial === 'K5A-2648-00018') return jsonResponse(200, { ...scanResult, unit: { ...sampleUnit, id: 8, serial } });
+        if (serial === 'K5A-2648-00021') {
+          // a slow check: the next label arrives before its answer
+          await new Promise((r) => setTimeout(r, 300));
+          return jsonResponse(200, { ...scanResult, unit: { ...sampleUnit, id: 21, serial } });
+        }
+        if (serial === 'K5A-2648-00019') return jsonResponse(200, { ...scanResult, attempt: 3, unit: { ...sampleUnit, id: 9, serial, state: 'failed', testCount: 2 } });
+        if (serial === 'K5A-2648-00020') {
+          return jsonResponse(409, { statusCode: 409, error: 'Conflict', message: 'K5A-2648-00020 has been scrapped; it cannot be tested again. Set it aside.', details: { code: 'unit_not_testable', unitState: 'scrapped' } });
+        }
         if (serial === 'K5A-2648-00003') {
           return jsonResponse(409, { statusCode: 409, error: 'Conflict', message: 'x', details: { code: 'already_passed' } });
         }
@@ -97,6 +107,10 @@ function serve() {
         return jsonResponse(404, { statusCode: 404, error: 'Not Found', message: 'x', details: { code: 'unknown_serial' } });
       }
       if (method === 'POST' && path === '/api/stations/1/runs') return jsonResponse(201, { run: sampleRun });
+      if (method === 'GET' && path === '/api/plan-versions/1') return jsonResponse(200, { id: 1, maxAttempts: 3 });
+      if (method === 'POST' && path === '/api/units/K5A-2648-00017/send-to-repair') {
+        return jsonResponse(200, { ...sampleUnit, state: 'failed', testCount: 1 });
+      }
       if (method === 'GET' && path === '/api/runs/41/repair-tag.pdf') {
         return new Response('%PDF-1.7 tag', { status: 200, headers: { 'Content-Type': 'application/pdf' } });
       }
@@ -113,6 +127,9 @@ async function openStation(roles: Parameters<typeof makeUser>[0] = ['operator'])
   window.localStorage.setItem('railwright.station.id', '1');
   const r = renderApp(<StationScreen />, { route: '/station', signedInAs: makeUser(roles) });
   const field = await screen.findByRole('textbox', { name: 'Serial' });
+  // READY only once the live link is up
+  await waitFor(() => expect(sockets.length).toBeGreaterThan(0));
+  await fire('connect', undefined);
   await screen.findByTestId('ready-prompt');
   await waitFor(() => expect(field).toHaveFocus());
   return { ...r, field };
@@ -174,17 +191,23 @@ describe('StationScreen', () => {
     now += 1_000;
     await user.keyboard('{Escape}');
     await waitFor(() => expect(dialog).not.toBeInTheDocument());
+    expect(screen.queryByTestId('refusal')).toBeNull();
     await waitFor(() => expect(field).toHaveFocus());
     expect(calls.some((c) => c.path === '/api/stations/1/runs')).toBe(false);
   });
 
-  it('scan → Enter on the prompt → steps stream in → FAIL with the failing value and the repair tag', async () => {
+  it('scan → F9 on the prompt (Enter does nothing) → steps stream in → FAIL with the failing value and what to do', async () => {
     const { user, field } = await openStation();
     await user.type(field, 'K5A-2648-00017{Enter}');
-    await screen.findByRole('dialog', { name: 'Before power is applied' });
-    await waitFor(() => expect(screen.getByRole('button', { name: /Apply power and test/ })).toHaveFocus());
+    const dialog = await screen.findByRole('dialog', { name: 'Before power is applied' });
+    expect(dialog).toHaveTextContent('Attempt 1 of 3');
     now += 1_000;
-    await user.keyboard('{Enter}');
+    // Enter and Space never apply power (a scanner sends them); the prompt says which key does
+    await user.keyboard('{Enter} ');
+    expect(calls.some((c) => c.path === '/api/stations/1/runs')).toBe(false);
+    expect(within(dialog).getByRole('status')).toHaveTextContent('Enter does not apply power. Press F9');
+    now += 1_000;
+    await user.keyboard('{F9}');
     await waitFor(() => expect(calls).toContainEqual({ method: 'POST', path: '/api/stations/1/runs', body: { serial: 'K5A-2648-00017', safetyConfirmed: true } }));
     await waitFor(() => expect(field).toHaveFocus());
 
@@ -216,8 +239,15 @@ describe('StationScreen', () => {
     const verdict = await screen.findByTestId('verdict');
     expect(within(verdict).getByTestId('verdict-word')).toHaveTextContent('FAIL');
     expect(verdict).toHaveTextContent('Output voltage at 3 A: 4.612 V, limits 4.900 … 5.100 V');
-    expect(verdict).toHaveTextContent('repair queue');
+    expect(within(verdict).getByTestId('verdict-attempt')).toHaveTextContent('attempt 1 of 3');
+    // attempts left: the unit stays here, and the panel does not claim it is on the repair queue
+    expect(within(verdict).getByTestId('verdict-advice')).toHaveTextContent('2 attempts left: re-seat the unit and test it again, or send it to repair.');
+    expect(verdict).not.toHaveTextContent('repair queue');
     expect(within(verdict).getByRole('button', { name: /Print repair tag/ })).toBeInTheDocument();
+    await user.click(within(verdict).getByRole('button', { name: 'Send to repair' }));
+    await waitFor(() => expect(calls).toContainEqual({ method: 'POST', path: '/api/units/K5A-2648-00017/send-to-repair', body: {} }));
+    await waitFor(() => expect(within(verdict).getByTestId('verdict-advice')).toHaveTextContent('Sent to the repair queue'));
+    expect(within(verdict).queryByRole('button', { name: 'Send to repair' })).toBeNull();
     await waitFor(() => expect(field).toHaveFocus());
     // the shift counters are asked again after a verdict
     await waitFor(() => expect(calls.filter((c) => c.path === '/api/stations/1/shift-summary').length).toBeGreaterThan(1));
@@ -233,7 +263,7 @@ describe('StationScreen', () => {
     await user.type(field, 'K5A-2648-00017{Enter}');
     await screen.findByRole('dialog', { name: 'Before power is applied' });
     now += 1_000;
-    await user.keyboard('{Enter}');
+    await user.keyboard('{F9}');
     await fire('run:started', { stationId: 1, emittedAt: Date.now(), run: sampleRun, unit: sampleUnit, steps: sampleSteps });
     await screen.findByTestId('testing-serial');
     await user.keyboard('{Escape}');
@@ -246,12 +276,124 @@ describe('StationScreen', () => {
     expect(screen.getByTestId('verdict')).toHaveTextContent('Unit not judged — test it again.');
   });
 
-  it('says so when the live link drops, and clears it once back', async () => {
-    await openStation();
+  it('says so when the live link drops: no green READY, no "Scan a unit", and a scan starts nothing', async () => {
+    const { user, field } = await openStation();
+    expect(screen.getByText('READY')).toBeInTheDocument();
     await fire('disconnect', 'transport close');
     expect(await screen.findByTestId('live-link-banner')).toHaveTextContent('Live link lost — reconnecting');
+    expect(screen.getByTestId('link-mark')).toHaveTextContent('Server not reachable');
+    expect(screen.queryByText('READY')).toBeNull();
+    expect(screen.queryByTestId('ready-prompt')).toBeNull();
+    expect(screen.getByTestId('offline')).toHaveTextContent('Server not reachable');
+    await user.type(field, 'K5A-2648-00017{Enter}');
+    expect(await screen.findByTestId('refusal')).toHaveTextContent('Server not reachable');
+    expect(calls.some((c) => c.path === '/api/stations/1/scan')).toBe(false);
     await fire('connect', undefined);
     await waitFor(() => expect(screen.queryByTestId('live-link-banner')).toBeNull());
+    expect(screen.getByText('READY')).toBeInTheDocument();
+  });
+
+  it('never shows READY before the live link is up', async () => {
+    window.localStorage.setItem('railwright.station.id', '1');
+    renderApp(<StationScreen />, { route: '/station', signedInAs: makeUser(['operator']) });
+    expect(await screen.findByTestId('link-mark')).toHaveTextContent('Connecting');
+    expect(screen.queryByText('READY')).toBeNull();
+    expect(screen.queryByTestId('ready-prompt')).toBeNull();
+    await waitFor(() => expect(sockets.length).toBeGreaterThan(0));
+    await fire('connect_error', new Error('xhr poll error'));
+    expect(screen.getByTestId('link-mark')).toHaveTextContent('Server not reachable');
+    expect(screen.getByTestId('offline')).toBeInTheDocument();
+  });
+
+  it('a scanner burst while the prompt is open cancels it (no power) and becomes the next scan', async () => {
+    const { user, field } = await openStation();
+    await user.type(field, 'K5A-2648-00017{Enter}');
+    const first = await screen.findByRole('dialog', { name: 'Before power is applied' });
+    expect(first).toHaveTextContent('K5A-2648-00017');
+    now += 1_000;
+    // the next label, typed into the open prompt the way a scanner does, Enter included
+    await user.keyboard('K5A-2648-00018{Enter}');
+    await waitFor(() => expect(calls).toContainEqual({ method: 'POST', path: '/api/stations/1/scan', body: { serial: 'K5A-2648-00018' } }));
+    const second = await screen.findByRole('dialog', { name: 'Before power is applied' });
+    await waitFor(() => expect(second).toHaveTextContent('K5A-2648-00018'));
+    expect(calls.some((c) => c.path === '/api/stations/1/runs')).toBe(false);
+    expect(field).toHaveValue('');
+    // the new unit is confirmed with F9 only
+    now += 1_000;
+    await user.keyboard('{F9}');
+    await waitFor(() => expect(calls).toContainEqual({ method: 'POST', path: '/api/stations/1/runs', body: { serial: 'K5A-2648-00018', safetyConfirmed: true } }));
+    expect(calls.filter((c) => c.path === '/api/stations/1/runs')).toHaveLength(1);
+  });
+
+  it('a label scanned while the last one is still being checked wins: only it gets the safety prompt', async () => {
+    const { user, field } = await openStation();
+    await user.type(field, 'K5A-2648-00021{Enter}');
+    await user.type(field, 'K5A-2648-00018{Enter}');
+    const dialog = await screen.findByRole('dialog', { name: 'Before power is applied' }, { timeout: 3_000 });
+    // however the second label's keys fell (into the field, into the prompt), it is scanned whole
+    expect(calls.filter((c) => c.path === '/api/stations/1/scan').map((c) => (c.body as { serial: string }).serial)).toEqual([
+      'K5A-2648-00021',
+      'K5A-2648-00018',
+    ]);
+    await waitFor(() => expect(dialog).toHaveTextContent('K5A-2648-00018'));
+    await act(() => new Promise((r) => setTimeout(r, 500)));
+    expect(screen.getByRole('dialog', { name: 'Before power is applied' })).toHaveTextContent('K5A-2648-00018');
+    expect(screen.queryByText('K5A-2648-00021')).toBeNull();
+    expect(calls.some((c) => c.path === '/api/stations/1/runs')).toBe(false);
+  }, 15_000);
+
+  it('a second scan during a run is refused in its own place; the run, then its verdict, keep the panel', async () => {
+    const { user, field } = await openStation();
+    await fire('run:started', { stationId: 1, emittedAt: Date.now(), run: sampleRun, unit: sampleUnit, steps: sampleSteps });
+    await screen.findByTestId('testing-serial');
+    await user.type(field, 'K5A-2648-00018{Enter}');
+    const refusal = await screen.findByTestId('refusal');
+    expect(refusal).toHaveTextContent('Station busy');
+    expect(screen.getByTestId('testing-serial')).toHaveTextContent('K5A-2648-00017');
+    await fire('run:finished', { stationId: 1, emittedAt: Date.now(), runId: 41, verdict: 'pass', failures: [], durationMs: 8000, unit: { ...sampleUnit, state: 'passed', testCount: 1 } });
+    expect(await screen.findByTestId('verdict-word')).toHaveTextContent('PASS');
+    expect(screen.getByTestId('refusal')).toHaveTextContent('Station busy');
+    expect(screen.getByTestId('verdict')).not.toHaveTextContent('Station busy');
+  });
+
+  it('a FAIL with no attempts left says the unit goes to repair, and offers no retest', async () => {
+    const { user, field } = await openStation();
+    await user.type(field, 'K5A-2648-00019{Enter}');
+    const dialog = await screen.findByRole('dialog', { name: 'Before power is applied' });
+    expect(dialog).toHaveTextContent('Attempt 3 of 3');
+    now += 1_000;
+    await user.keyboard('{F9}');
+    const run = { ...sampleRun, serial: 'K5A-2648-00019', unitId: 9, attempt: 3 };
+    await fire('run:started', { stationId: 1, emittedAt: Date.now(), run, unit: sampleUnit, steps: sampleSteps });
+    const bad = measurementFor(0, 'iinNoLoadMa', 22, 'fail');
+    await fire('run:finished', { stationId: 1, emittedAt: Date.now(), runId: 41, verdict: 'fail', failures: [bad], durationMs: 1000, unit: sampleUnit });
+    const verdict = await screen.findByTestId('verdict');
+    expect(within(verdict).getByTestId('verdict-attempt')).toHaveTextContent('attempt 3 of 3');
+    expect(within(verdict).getByTestId('verdict-advice')).toHaveTextContent('No attempts left: the unit goes to the repair queue.');
+    expect(within(verdict).queryByRole('button', { name: 'Send to repair' })).toBeNull();
+  });
+
+  it('a scrapped unit is titled as scrapped, not as held for repair', async () => {
+    const { user, field } = await openStation();
+    await user.type(field, 'K5A-2648-00020{Enter}');
+    const refusal = await screen.findByTestId('refusal');
+    expect(refusal).toHaveTextContent('Unit scrapped: set it aside');
+    expect(refusal).not.toHaveTextContent('held for repair');
+  });
+
+  it('a value just under its limit is written with the digit that shows it (92.96 against ≥ 93.00)', async () => {
+    await openStation();
+    await fire('run:started', { stationId: 1, emittedAt: Date.now(), run: sampleRun, unit: sampleUnit, steps: sampleSteps });
+    const eff = {
+      ...measurementFor(0, 'iinNoLoadMa', 92.96, 'fail'),
+      name: 'Efficiency at 1.5 A',
+      quantity: 'efficiencyPct@1.5',
+      unit: '%',
+      lowLimit: 93,
+      highLimit: null,
+    };
+    await fire('run:finished', { stationId: 1, emittedAt: Date.now(), runId: 41, verdict: 'fail', failures: [eff], durationMs: 1000, unit: sampleUnit });
+    expect(await screen.findByTestId('verdict-failure')).toHaveTextContent('Efficiency at 1.5 A: 92.96 %, limits ≥ 93.00 %');
   });
 
   it('shows the blocking reasons of a blocked station from the live state', async () => {
@@ -283,8 +425,7 @@ describe('StationScreen', () => {
     const safety = await screen.findByRole('dialog', { name: 'Before power is applied' });
     expect(safety).toHaveTextContent('Reason: no - customer return, rework of C12');
     now += 1_000;
-    await waitFor(() => expect(within(safety).getByRole('button', { name: /Apply power and test/ })).toHaveFocus());
-    await user.keyboard('{Enter}');
+    await user.keyboard('{F9}');
     await waitFor(() =>
       expect(calls).toContainEqual({
         method: 'POST',

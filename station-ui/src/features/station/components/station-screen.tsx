@@ -5,21 +5,26 @@ import { useCallback, useEffect, useRef, useState } from 'react';
 import { hasAnyRole, useUser } from '@/lib/auth';
 import { useAbortRun } from '../api/abort-run';
 import { liveRunQueryKey, liveRunQueryOptions } from '../api/get-live-run';
+import { planAttemptsQueryKey, usePlanMaxAttempts } from '../api/get-plan-attempts';
 import { useStationStatus } from '../api/get-station-status';
 import { useStations } from '../api/get-stations';
 import { useScanUnit, type ScanResult } from '../api/scan-unit';
+import { useSendToRepair } from '../api/send-to-repair';
 import { useStartRun } from '../api/start-run';
 import { usePrintRepairTag } from '../hooks/use-print-repair-tag';
 import { useRememberedStation } from '../hooks/use-remembered-station';
+import { useSafetyKeys } from '../hooks/use-safety-keys';
 import { useStationLive } from '../hooks/use-station-live';
 import { useVerdictSound } from '../hooks/use-verdict-sound';
 import { runFromStartAnswer, type LiveRun } from '../live-run';
 import { describeRefusal, type RefusalMessage } from '../refusal-messages';
+import type { GuardHint } from '../safety-keys';
 import { LiveLinkBanner } from './live-link-banner';
 import { OverrideDialog } from './override-dialog';
-import { PRINT_KEY, ResultPanel } from './result-panel';
+import { PRINT_KEY, ResultPanel, type RepairSendState } from './result-panel';
 import { SafetyDialog } from './safety-dialog';
 import { ScanField } from './scan-field';
+import { ScanNotice } from './scan-notice';
 import { ShiftCounters } from './shift-counters';
 import { StationHeader } from './station-header';
 import { StationPicker } from './station-picker';
@@ -73,15 +78,20 @@ function StationConsole({ stationId, onChangeStation, outsideDialogOpen }: Stati
   const start = useStartRun();
   const abort = useAbortRun();
   const printer = usePrintRepairTag();
+  const repairSend = useSendToRepair();
 
   const [refusal, setRefusal] = useState<RefusalMessage | null>(null);
   const [pending, setPending] = useState<PendingStart | null>(null);
   const [dialog, setDialog] = useState<Dialog>('none');
   const [abortArmed, setAbortArmed] = useState(false);
+  const [scanText, setScanText] = useState('');
+  const [safetyHint, setSafetyHint] = useState<GuardHint | null>(null);
+  const [repair, setRepair] = useState<RepairSendState>({ kind: 'idle' });
   const scanRef = useRef<HTMLInputElement>(null);
 
   const run: LiveRun | null = live.data ?? null;
   const running = !!run && !run.finished;
+  const maxAttempts = usePlanMaxAttempts(run?.run.planVersionId).data;
   const anyDialog = dialog !== 'none' || outsideDialogOpen;
 
   /** Focus back to the scan field after every action (after the dialog's own focus handling). */
@@ -151,6 +161,7 @@ function StationConsole({ stationId, onChangeStation, outsideDialogOpen }: Stati
     sound.unlock();
     const partNumber = status.data?.activeLot?.partNumber;
     if (running) {
+      // in its own place: the run on screen (and its coming verdict) stays where it is
       setRefusal({
         code: 'station_busy',
         title: 'Station busy',
@@ -158,14 +169,25 @@ function StationConsole({ stationId, onChangeStation, outsideDialogOpen }: Stati
       });
       return;
     }
+    if (link !== 'live') {
+      setRefusal({
+        code: 'no_link',
+        title: 'Server not reachable',
+        detail: `Nothing was started for ${serial}. Wait until the station shows READY again, then scan it again.`,
+      });
+      return;
+    }
     setRefusal(null);
     printer.reset();
+    setRepair({ kind: 'idle' });
     // the last verdict stays on screen until the next scan: this is the next scan
     queryClient.setQueryData<LiveRun | null>(liveRunQueryKey(stationId), null);
     scan.mutate(
       { stationId, serial },
       {
         onSuccess: (result) => {
+          queryClient.setQueryData(planAttemptsQueryKey(result.plan.versionId), result.plan.maxAttempts);
+          setSafetyHint(null);
           setPending({ serial: result.unit.serial, scan: result });
           setDialog('safety');
         },
@@ -208,6 +230,57 @@ function StationConsole({ stationId, onChangeStation, outsideDialogOpen }: Stati
     focusScan();
   };
 
+  const scanTextRef = useRef(scanText);
+  scanTextRef.current = scanText;
+  const onScanRef = useRef(onScan);
+  onScanRef.current = onScan;
+  const safetyKeys = useSafetyKeys(dialog === 'safety', {
+    onConfirm: confirmSafety,
+    onCancel: cancelSafety,
+    // a label scanned into the prompt: this unit gets no power; the new scan is collected and then sent
+    onBurstStart: () => {
+      cancelSafety();
+      // a scanner already typing when the prompt opened left the start of its label in the field
+      const head = scanTextRef.current;
+      setScanText('');
+      return head;
+    },
+    onBurstScan: (serial) => onScanRef.current(serial),
+    onBurstText: (text) => {
+      setScanText((t) => t + text);
+      focusScan();
+    },
+    onHint: (hint) => {
+      // an Enter that ends a label typed into the field before the prompt opened: that label is a new scan
+      const typed = scanTextRef.current.trim();
+      if (hint === 'not_enter' && typed) {
+        cancelSafety();
+        setScanText('');
+        onScanRef.current(typed);
+        return;
+      }
+      setSafetyHint(hint);
+    },
+  });
+
+  const pointerConfirm = () => {
+    if (safetyKeys.pointerMayConfirm()) confirmSafety();
+    else setSafetyHint('too_soon');
+  };
+
+  const sendToRepair = () => {
+    if (!run?.finished || run.finished.verdict !== 'fail') return;
+    setRepair({ kind: 'sending' });
+    repairSend.mutate(
+      { serial: run.run.serial },
+      {
+        onSuccess: () => setRepair({ kind: 'sent' }),
+        onError: (err) => setRepair({ kind: 'failed', message: `Not sent to repair: ${err instanceof Error ? err.message : 'try again'}.` }),
+        onSettled: focusScan,
+      },
+    );
+  };
+
   const submitOverride = (reason: string) => {
     setPending((p) => (p ? { ...p, overrideReason: reason } : p));
     setRefusal(null);
@@ -223,21 +296,26 @@ function StationConsole({ stationId, onChangeStation, outsideDialogOpen }: Stati
   return (
     <div className={classes.screen}>
       <LiveLinkBanner link={link} />
-      <StationHeader status={status.data} muted={sound.muted} onToggleMuted={() => { sound.toggleMuted(); focusScan(); }} onChangeStation={onChangeStation} />
-      <div className={classes.scanRow}>
-        <ScanField ref={scanRef} onScan={onScan} busy={scan.isPending} onKeyActivity={sound.unlock} onBlurToNowhere={() => !anyDialog && focusScan()} />
+      <StationHeader status={status.data} link={link} statusFailed={status.isError && !status.data} muted={sound.muted} onToggleMuted={() => { sound.toggleMuted(); focusScan(); }} onChangeStation={onChangeStation} />
+      <div className={classes.scanRow} data-testid="scan-row">
+        <ScanField ref={scanRef} value={scanText} onValueChange={setScanText} onScan={onScan} busy={scan.isPending} onKeyActivity={sound.unlock} onBlurToNowhere={() => !anyDialog && focusScan()} />
         <ShiftCounters stationId={stationId} />
       </div>
+      {refusal && <ScanNotice refusal={refusal} besideRun={!!run} onDismiss={() => { setRefusal(null); focusScan(); }} />}
       <ResultPanel
         live={run}
-        refusal={refusal}
         starting={start.isPending}
         status={status.data}
+        statusFailed={status.isError && !status.data}
+        link={link}
+        maxAttempts={maxAttempts}
         abortArmed={abortArmed}
         aborting={abort.isPending}
         onAbort={doAbort}
         print={printer.state}
         onPrint={doPrint}
+        repair={repair}
+        onSendToRepair={sendToRepair}
       />
       <div className={classes.steps}>
         {run && run.steps.length > 0 ? (
@@ -250,8 +328,11 @@ function StationConsole({ stationId, onChangeStation, outsideDialogOpen }: Stati
         opened={dialog === 'safety'}
         serial={pending?.serial ?? ''}
         partNumber={pending?.scan?.product.partNumber}
+        attempt={pending?.scan?.attempt}
+        maxAttempts={pending?.scan?.plan.maxAttempts}
         overrideReason={pending?.overrideReason}
-        onConfirm={confirmSafety}
+        hint={safetyHint}
+        onPointerConfirm={pointerConfirm}
         onCancel={cancelSafety}
       />
       <OverrideDialog opened={dialog === 'override'} serial={pending?.serial ?? ''} onSubmit={submitOverride} onCancel={cancelOverride} />

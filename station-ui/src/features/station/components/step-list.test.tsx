@@ -97,4 +97,31 @@ describe('StepList', () => {
     expect(screen.getByTestId('row-protection|foldback')).toHaveTextContent('not run');
     expect(screen.getByTestId('row-iin-no-load|iinNoLoadMa').closest('tbody')).toHaveAttribute('data-current', 'no');
   });
+
+  it('writes a judged value, its limits and its acceptance limits at the same digits (92.96 against ≥ 93.00)', async () => {
+    const { put } = await setup();
+    // a value that rounds onto its limit at the usual one decimal: the shared formatter adds the digit
+    await put((l) => withMeasurement(l, judged(measurementFor(0, 'iinNoLoadMa', 15.04, 'fail'))));
+    const row = screen.getByTestId('row-iin-no-load|iinNoLoadMa');
+    expect(row).toHaveTextContent('15.04mA');
+    expect(row).toHaveTextContent('≤ 15.00 mA');
+    // guarded limits at the precision they were computed, value at the same digits
+    await put((l) => withMeasurement(l, judged(measurementFor(1, 'voutV@3', 5.0912, 'guard_fail', { guardedLow: 4.9105, guardedHigh: 5.0895 }))));
+    const guarded = screen.getByTestId('row-vout-load|voutV@3');
+    expect(guarded).toHaveTextContent('5.0912V');
+    expect(guarded).toHaveTextContent('4.9000 … 5.1000 V');
+    expect(guarded).toHaveTextContent('guard 4.9105 … 5.0895 V');
+  });
+
+  it("shows each judged value's decision statement in words, on a line kept from the start", async () => {
+    const { put } = await setup();
+    const row = () => screen.getByTestId('row-iin-no-load|iinNoLoadMa');
+    const line = within(row()).getByTestId('decision');
+    expect(line).toHaveAttribute('data-visible', 'no');
+    const m = { ...measurementFor(0, 'iinNoLoadMa', 14.9), decision: 'conditional_pass' } as ReturnType<typeof measurementFor>;
+    await put((l) => withMeasurement(l, judged(m)));
+    expect(within(row()).getByTestId('decision')).toBe(line);
+    expect(line).toHaveAttribute('data-visible', 'yes');
+    expect(line).toHaveTextContent('pass, within uncertainty');
+  });
 });

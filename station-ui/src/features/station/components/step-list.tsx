@@ -1,7 +1,7 @@
 import type { LimitView, MeasurementView, StepOutline } from '@station-events';
 import { useEffect, useLayoutEffect, useRef } from 'react';
 import { VerdictBadge } from '@/components/verdict';
-import { formatLimits, formatValue, guardDiffers } from '../format';
+import { formatLimits, formatMeasured, formatValue } from '@contract/value-format';
 import { limitStatus, measurementKey, stepStatus, type LiveRun, type StepStatus } from '../live-run';
 import { recordPaintLatency } from '../paint-latency';
 import classes from './step-list.module.css';
@@ -12,6 +12,22 @@ interface MeasuredValueProps {
   emittedAtMs?: number;
 }
 
+/** The ILAC-G8 decision statement (measurements.decision), in the words every screen uses. */
+export type DecisionName = 'pass' | 'conditional_pass' | 'conditional_fail' | 'fail';
+
+export const decisionWords: Record<DecisionName, string> = {
+  pass: 'pass',
+  conditional_pass: 'pass, within uncertainty',
+  conditional_fail: 'fail, within uncertainty',
+  fail: 'fail',
+};
+
+/** The decision a measurement carries, if the server sent one (the field is new; older servers omit it). */
+export function decisionOf(m: MeasurementView | undefined): DecisionName | null {
+  const d = (m as (MeasurementView & { decision?: unknown }) | undefined)?.decision;
+  return typeof d === 'string' && Object.hasOwn(decisionWords, d) ? (d as DecisionName) : null;
+}
+
 /** The value cell: a dash until the value arrives, then the figure; its width never changes. */
 function MeasuredValue({ measurement, limit, emittedAtMs }: MeasuredValueProps) {
   const id = measurement?.id;
@@ -19,7 +35,10 @@ function MeasuredValue({ measurement, limit, emittedAtMs }: MeasuredValueProps) 
     // once per judged value, after the commit that put it on screen
     if (id !== undefined && emittedAtMs !== undefined) recordPaintLatency(emittedAtMs);
   }, [id, emittedAtMs]);
-  const { text, unit } = formatValue(measurement?.value, limit.key, measurement?.unit ?? limit.unit);
+  // a judged value is written at the digits of its limits (the shared formatter); before it arrives, a dash
+  const { text, unit } = measurement
+    ? (({ value, unit: u }) => ({ text: value, unit: u }))(formatMeasured(measurement))
+    : formatValue(undefined, limit.key, limit.unit);
   return (
     <span className={classes.value} data-figure data-measured={measurement ? 'yes' : 'no'}>
       <span className={classes.number}>{text}</span>
@@ -28,7 +47,7 @@ function MeasuredValue({ measurement, limit, emittedAtMs }: MeasuredValueProps) 
   );
 }
 
-function ResultCell({ status }: { status: StepStatus }) {
+function ResultMark({ status }: { status: StepStatus }) {
   switch (status) {
     case 'pass':
     case 'fail':
@@ -47,6 +66,19 @@ function ResultCell({ status }: { status: StepStatus }) {
   }
 }
 
+function ResultCell({ status, measurement }: { status: StepStatus; measurement?: MeasurementView }) {
+  const decision = decisionOf(measurement);
+  return (
+    <>
+      <ResultMark status={status} />
+      {/* the decision's line is kept even when empty, so a row never grows when a value arrives */}
+      <span className={classes.decision} data-testid="decision" data-visible={decision ? 'yes' : 'no'}>
+        {decision ? decisionWords[decision] : '\u00a0'}
+      </span>
+    </>
+  );
+}
+
 interface LimitRowProps {
   live: LiveRun;
   step: StepOutline;
@@ -59,10 +91,11 @@ function LimitRow({ live, step, stepIndex, limit, first }: LimitRowProps) {
   const key = measurementKey(step.key, limit.key);
   const m = live.measurements[key];
   const status = limitStatus(live, stepIndex, limit.key);
-  const low = m ? m.lowLimit : limit.low;
-  const high = m ? m.highLimit : limit.high;
-  const unit = m?.unit ?? limit.unit;
-  const showGuard = m ? guardDiffers(low, high, m.guardedLow, m.guardedHigh) : false;
+  // once judged: value, specification and acceptance limits at the same digits; before that, the plan's
+  // limits at the precision they were stated
+  const shown = m ? formatMeasured(m) : null;
+  const spec = shown ? shown.spec : formatLimits(limit.low, limit.high, limit.key, limit.unit);
+  const accept = shown?.accept ?? null;
   const multi = step.limits.length > 1;
   return (
     <tr data-testid={`row-${key}`} data-status={status}>
@@ -86,16 +119,16 @@ function LimitRow({ live, step, stepIndex, limit, first }: LimitRowProps) {
         <MeasuredValue measurement={m} limit={limit} emittedAtMs={live.emittedAtMs[key]} />
       </td>
       <td className={classes.limitCell}>
-        <span className={classes.spec}>{formatLimits(low, high, limit.key, unit)}</span>
+        <span className={classes.spec}>{spec}</span>
         {limit.rule === 'guarded' && (
           // reserved even before the value arrives, so the row does not grow when it does
-          <span className={classes.guard} data-visible={showGuard ? 'yes' : 'no'}>
-            {showGuard && m ? `guard ${formatLimits(m.guardedLow, m.guardedHigh, limit.key, unit)}` : 'guard band'}
+          <span className={classes.guard} data-visible={accept ? 'yes' : 'no'}>
+            {accept ? `guard ${accept}` : 'guard band'}
           </span>
         )}
       </td>
       <td className={classes.resultCell}>
-        <ResultCell status={status} />
+        <ResultCell status={status} measurement={m} />
       </td>
     </tr>
   );
