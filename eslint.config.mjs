@@ -57,7 +57,8 @@ export default defineConfig(
     languageOptions: { globals: { ...globals.node } },
   },
   {
-    files: ['**/*.cjs'],
+    // CommonJS packages' plain scripts (station-api is "type": "commonjs")
+    files: ['**/*.cjs', 'station-api/scripts/**/*.js'],
     languageOptions: { sourceType: 'commonjs', globals: { ...globals.node } },
     rules: { '@typescript-eslint/no-require-imports': 'off' },
   },

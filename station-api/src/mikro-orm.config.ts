@@ -36,7 +36,7 @@ export function createOrmConfig(dbPath: string, overrides: Partial<Options> = {}
       min: 1,
       max: 1,
       // WAL lets readers (yield screens) run while the engine writes; wait instead of failing on a lock
-      afterCreate: (conn: any, done: (err: Error | null, conn: unknown) => void) => {
+      afterCreate: (conn: SqliteConnection, done: (err: Error | null, conn: unknown) => void) => {
         conn.run('PRAGMA journal_mode = WAL', () =>
           conn.run('PRAGMA busy_timeout = 5000', () =>
             conn.run('PRAGMA foreign_keys = ON', (err: Error | null) => done(err, conn)),
@@ -53,3 +53,8 @@ export function createOrmConfig(dbPath: string, overrides: Partial<Options> = {}
 }
 
 export default createOrmConfig(loadEnv().DATABASE_PATH);
+
+/** The part of the sqlite3 driver's connection the pool's afterCreate hook uses. */
+interface SqliteConnection {
+  run(sql: string, callback: (err: Error | null) => void): void;
+}

@@ -8,6 +8,7 @@ import { StationEventsPublisher } from '../src/realtime/station-events.publisher
 import { RunEngineService } from '../src/runs/run-engine.service';
 import { TestRun } from '../src/runs/test-run.entity';
 import { Station } from '../src/stations/station.entity';
+import type { BoardEntryDto } from '../src/board/dto/board.dto';
 import { Unit, UnitState } from '../src/units/unit.entity';
 import { createTestApp, login, TestApp } from './create-test-app';
 
@@ -124,14 +125,14 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
 
   describe('GET /api/board', () => {
     it('lists the three stations with state, fixture, lot, last runs and shift counters', async () => {
-      const board = (await as('quality', http().get('/api/board')).expect(200)).body as Array<Record<string, any>>;
+      const board = (await as('quality', http().get('/api/board')).expect(200)).body as BoardEntryDto[];
       expect(board.map((b) => b.station.code)).toEqual(['EOL-1', 'EOL-2', 'EOL-3']);
-      expect(board.map((b) => b.fixture.code)).toEqual(['FX-101', 'FX-102', 'FX-103']);
-      expect(board.map((b) => b.activeLot.partNumber)).toEqual(['OB-BK0503', 'OB-BK3305', 'OB-BK1202']);
+      expect(board.map((b) => b.fixture?.code)).toEqual(['FX-101', 'FX-102', 'FX-103']);
+      expect(board.map((b) => b.activeLot?.partNumber)).toEqual(['OB-BK0503', 'OB-BK3305', 'OB-BK1202']);
       for (const b of board) {
         expect(['idle', 'ready', 'testing', 'fault', 'blocked']).toContain(b.state);
         expect(Array.isArray(b.reasons)).toBe(true);
-        expect(Number.isNaN(Date.parse(b.fixture.calibrationDueAt))).toBe(false);
+        expect(Number.isNaN(Date.parse(b.fixture!.calibrationDueAt))).toBe(false);
         expect(b.currentRun).toBeNull();
       }
       const eol1 = board[0];
@@ -145,7 +146,7 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
     });
 
     it('shows the same state and reasons as the station status route', async () => {
-      const board = (await as('operator', http().get('/api/board')).expect(200)).body as Array<Record<string, any>>;
+      const board = (await as('operator', http().get('/api/board')).expect(200)).body as BoardEntryDto[];
       for (const b of board) {
         const status = (await as('operator', http().get(`/api/stations/${b.station.id}/status`)).expect(200)).body;
         expect({ state: b.state, reasons: b.reasons }).toEqual({ state: status.state, reasons: status.reasons });
@@ -157,10 +158,10 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
       const em = t.orm.em.fork();
       const pass = await em.findOneOrFail(TestRun, { id: passRunId });
       const finishedAt = pass.finishedAt!;
-      const board = async () => ((await as('operator', http().get('/api/board')).expect(200)).body as Array<Record<string, any>>)[0];
+      const board = async () => ((await as('operator', http().get('/api/board')).expect(200)).body as BoardEntryDto[])[0];
       const now = await board();
       for (const r of now.lastRuns) expect(Date.parse(r.finishedAt)).toBeGreaterThanOrEqual(Date.parse(now.shift.shiftStart));
-      expect(now.lastRuns.find((r: { id: number }) => r.id === passRunId).finishedAt).toBe(finishedAt.toISOString());
+      expect(now.lastRuns.find((r: { id: number }) => r.id === passRunId)!.finishedAt).toBe(finishedAt.toISOString());
       // the same run as if it had finished a minute before this shift began: no longer on the board
       const earlier = new Date(Date.parse(now.shift.shiftStart) - 60_000);
       await em.nativeUpdate(TestRun, { id: passRunId }, { finishedAt: earlier, startedAt: new Date(earlier.getTime() - 5_000) });
@@ -333,7 +334,7 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
         const started = await as('operator', http().post(`/api/stations/${stations['EOL-1'].id}/runs`)).send({ serial, safetyConfirmed: true }).expect(201);
         const runId = started.body.run.id as number;
         await atStep2;
-        const board = (await as('operator', http().get('/api/board')).expect(200)).body as Array<Record<string, any>>;
+        const board = (await as('operator', http().get('/api/board')).expect(200)).body as BoardEntryDto[];
         const detail = (await as('operator', http().get(`/api/runs/${runId}`)).expect(200)).body;
         expect(board[0].state).toBe('testing');
         expect(board[0].currentRun).toEqual({
@@ -352,7 +353,7 @@ describe('floor: shift counters, board, repair tag, repair queue', () => {
           if ((await as('operator', http().get(`/api/runs/${runId}`))).body.verdict !== 'running') break;
           await new Promise((r) => setTimeout(r, 20));
         }
-        const after = (await as('operator', http().get('/api/board')).expect(200)).body as Array<Record<string, any>>;
+        const after = (await as('operator', http().get('/api/board')).expect(200)).body as BoardEntryDto[];
         expect(after[0].currentRun).toBeNull();
         expect(after[0].lastRuns[0].id).toBe(runId);
       } finally {

@@ -14,7 +14,7 @@ describe('database upgrade from the previous release', () => {
   afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
   it('applies every migration to an old database and keeps runs, measurements and units', async () => {
-    Object.assign(process.env, { DATABASE_PATH: join(dir, 'old.sqlite'), JWT_SECRET: 'test-secret-at-least-16-chars', LOG_LEVEL: 'error' });
+    Object.assign(process.env, { DATABASE_PATH: join(dir, 'old.sqlite'), JWT_SECRET: 'test-secret-at-least-32-bytes-long-0123456789', LOG_LEVEL: 'error' });
     const { createOrmConfig } = await import('../src/mikro-orm.config');
     const orm = await MikroORM.init(createOrmConfig(join(dir, 'old.sqlite'), { debug: false }));
     try {

@@ -240,7 +240,6 @@ export class FixtureSimulator {
       if (line.length > FIXTURE_LIMITS.maxLineChars) {
         throw new ScpiError(-223, `line of ${line.length} characters; the fixture takes at most ${FIXTURE_LIMITS.maxLineChars}`);
       }
-      // eslint-disable-next-line no-control-regex
       if (/[^\x20-\x7e\t]/.test(line)) throw new ScpiError(-102, 'the line holds a non-printable or non-ASCII character');
       parsed = parseLine(line);
       const handler = this.findHandler(parsed);
@@ -519,7 +518,7 @@ export class FixtureSimulator {
         },
       },
       { pattern: 'LOAD[:STATe]', query: true, run: () => (this.loadOn ? '1' : '0') },
-      reading('MEASure:VOLTage:INput', 'MEAS:VOLT:IN?', (op) => formatNr3(this.meter(this.sourceOn ? this.sourceV : 0, NOISE.vinV)), false),
+      reading('MEASure:VOLTage:INput', 'MEAS:VOLT:IN?', (_op) => formatNr3(this.meter(this.sourceOn ? this.sourceV : 0, NOISE.vinV)), false),
       reading('MEASure:CURRent:INput', 'MEAS:CURR:IN?', (op) => formatNr3(this.meter(op?.iinA ?? 0, NOISE.iinA)), false),
       reading('MEASure:VOLTage:OUTput', 'MEAS:VOLT:OUT?', (op) => formatNr3(this.meter(op?.voutV ?? 0, NOISE.voutV)), true),
       reading('MEASure:CURRent:OUTput', 'MEAS:CURR:OUT?', (op) => formatNr3(this.meter(op?.ioutA ?? 0, NOISE.ioutA)), true),

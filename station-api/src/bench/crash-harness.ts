@@ -303,7 +303,8 @@ export async function runCrashHarness(opts: CrashHarnessOptions): Promise<CrashH
       }
 
       // every station starts a unit, and the next one as soon as it is free, until the kill
-      const killAt = Date.now() + 300 + random() * 6_000;
+      // a kill anywhere from just after the starts to a few steps into the next units
+      const killAt = Date.now() + 300 + random() * 4_000;
       const busy = new Map<number, number>();
       let startedThisCycle = 0;
       while (Date.now() < killAt) {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { isRefusalCode, REFUSAL_CODES, type RefusalCode } from './refusal-codes';
+import { isRefusalCode, REFUSAL_CODES } from './refusal-codes';
 import { DECISIONS, decisionWords, END_REASONS, endReasonWords, RUN_VERDICT_WORDS } from './run-outcome';
 
 

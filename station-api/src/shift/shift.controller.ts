@@ -6,6 +6,7 @@ import { ShiftSummaryDto } from './dto/shift.dto';
 import { ShiftSummaryService } from './shift-summary.service';
 
 /** A path id that must be a positive whole number, refused with a sentence naming it. */
+// eslint-disable-next-line no-useless-assignment -- read in the @Param decorator below, which the rule does not see
 const stationIdParam = new ParseIntPipe({
   exceptionFactory: () => new BadRequestException({ message: 'The station id in the address must be a whole number, e.g. 1.', details: { code: 'bad_id' } }),
 });

@@ -97,7 +97,7 @@ export async function startStationServer(extraEnv: NodeJS.ProcessEnv = {}): Prom
     await run(process.execPath, [resolve(repo.apiDist, 'database/seed-cli.js')], env);
   } catch (e) {
     await rm(dir, { recursive: true, force: true });
-    throw new Error(`Seeding the e2e database failed. ${(e as Error).message}`);
+    throw new Error(`Seeding the e2e database failed. ${(e as Error).message}`, { cause: e });
   }
 
   const port = await freePort();

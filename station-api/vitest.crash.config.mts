@@ -1,0 +1,13 @@
+import { defineConfig, mergeConfig } from 'vitest/config';
+import base from './vitest.config.mts';
+
+/*
+ * The crash harness on its own (`npm run test:crash`): it starts and kills the built server many times, so it
+ * runs after the other suites with the machine to itself instead of competing with them for two cores.
+ */
+export default mergeConfig(
+  base,
+  defineConfig({
+    test: { include: ['test/crash/**/*.crash-spec.ts'], testTimeout: 600_000, hookTimeout: 60_000 },
+  }),
+);
