@@ -70,7 +70,7 @@ export class FailureParetoService {
     const params = [...where.params, ...own.params];
     const conn = this.em.getConnection();
     const rows = (await conn.execute(
-      `select u.serial, r.id as run_id, r.attempt, r.started_at, m.step_name, m.name, m.value, m.unit, m.low_limit, m.high_limit,
+      `select u.serial, r.id as run_id, r.attempt, r.started_at, m.step_name, m.quantity, m.name, m.value, m.unit, m.low_limit, m.high_limit,
          m.guarded_low, m.guarded_high, m.verdict
        ${from} order by r.started_at desc, r.id desc, m.id limit ${PARETO_UNITS_LIMIT}`,
       params,
@@ -82,6 +82,7 @@ export class FailureParetoService {
       attempt: Number(r.attempt),
       startedAt: new Date(Number(r.started_at)).toISOString(),
       stepName: String(r.step_name),
+      quantity: String(r.quantity),
       quantityName: String(r.name),
       value: num(r.value),
       unit: String(r.unit),

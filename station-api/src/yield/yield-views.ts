@@ -48,6 +48,8 @@ export interface ParetoUnit {
   attempt: number;
   startedAt: string;
   stepName: string;
+  /** quantity key within the step */
+  quantity: string;
   quantityName: string;
   value: number | null;
   unit: string;
