@@ -7,6 +7,7 @@ import { paths } from '@/config/paths';
 import { useFailurePareto, type ParetoDimension } from '../api/get-failure-pareto';
 import { useParetoUnits } from '../api/get-pareto-units';
 import type { YieldFilters } from '../api/yield-filters';
+import classes from './quality.module.css';
 
 interface ParetoPanelProps {
   filters: YieldFilters;
@@ -20,6 +21,8 @@ interface ParetoPanelProps {
 export function ParetoPanel({ filters, by, onByChange, selected, onSelect }: ParetoPanelProps) {
   const pareto = useFailurePareto(filters, by);
   const bars = pareto.data?.bars ?? [];
+  // long step names are cut to what fits under a bar; the table below gives them in full
+  const maxLabel = Math.max(14, Math.floor(110 / Math.max(1, bars.length)));
   const data = bars.map((b) => ({ key: b.key, label: b.label, Failures: b.count, 'Cumulative %': Number(b.cumulativePercent.toFixed(1)) }));
   return (
     <Stack gap="sm">
@@ -59,7 +62,9 @@ export function ParetoPanel({ filters, by, onByChange, selected, onSelect }: Par
               { name: 'Failures', color: 'signalRed.6', type: 'bar' },
               { name: 'Cumulative %', color: 'graphite.7', type: 'line', yAxisId: 'right' },
             ]}
-            xAxisProps={{ interval: 0, tickFormatter: (v: string) => (v.length > 22 ? `${v.slice(0, 21)}…` : v) }}
+            xAxisProps={{ interval: 0, tickFormatter: (v: string) => (v.length > maxLabel ? `${v.slice(0, maxLabel - 1)}…` : v) }}
+            yAxisProps={{ allowDecimals: false }}
+            className={classes.chart}
             barProps={{ cursor: 'pointer', onClick: (_d: unknown, index: number) => onSelect(bars[index]?.key ?? null) }}
             withLegend
             aria-label="Failure Pareto chart"

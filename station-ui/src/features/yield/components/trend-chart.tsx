@@ -11,6 +11,9 @@ export function TrendChart({ days }: { days: YieldGroup[] }) {
     'Final yield': d.final.estimate === null ? null : Number((100 * d.final.estimate).toFixed(1)),
     units: d.unitsTested,
   }));
+  // start the axis at the next 10 % below the lowest day, so a dip is visible without exaggerating it
+  const lowest = Math.min(...data.flatMap((d) => [d.FPY ?? 100, d['Final yield'] ?? 100]));
+  const floor = Math.max(0, Math.floor((lowest - 1) / 10) * 10);
   return (
     <LineChart
       h={260}
@@ -21,7 +24,7 @@ export function TrendChart({ days }: { days: YieldGroup[] }) {
         { name: 'Final yield', color: 'slate.6' },
       ]}
       unit=" %"
-      yAxisProps={{ domain: ['auto', 100] }}
+      yAxisProps={{ domain: [floor, 100], allowDecimals: false }}
       yAxisLabel="Yield (%)"
       withLegend
       curveType="linear"

@@ -32,8 +32,8 @@ export function YieldCards({ data }: { data: YieldFiguresView }) {
         <Stack gap={4}>
           <Text fw={700}>Rolled throughput yield (RTY)</Text>
           <Figure value={rty.value === null ? null : 100 * rty.value} unit="%" digits={1} size={36} />
-          <Text size="sm" c="dimmed">
-            Product of {rty.steps.length} step first-pass yields. {rty.note}
+          <Text size="sm" c="dimmed" title={rty.note}>
+            Product of {rty.steps.length} step first-pass yields; each step has its own interval, RTY none.
           </Text>
           {rty.steps.length > 0 && (
             <Text size="sm" c="dimmed">

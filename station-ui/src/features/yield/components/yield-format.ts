@@ -19,5 +19,6 @@ export function indexText(v: number | null | undefined): string {
 /** Expected parts per million: whole numbers from 10 up, one decimal below, so small tails stay visible. */
 export function ppmText(v: number | null | undefined): string {
   if (v === null || v === undefined || !Number.isFinite(v)) return '—';
+  if (v > 0 && v < 0.1) return '< 0.1';
   return v >= 10 ? Math.round(v).toLocaleString('en-GB') : v.toFixed(1);
 }
