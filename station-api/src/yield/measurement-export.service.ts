@@ -15,7 +15,9 @@ export const EXPORT_COLUMNS = [
 
 /**
  * The measurements behind the yield views as CSV (RFC 4180, see ./csv.ts), with the same filters. Times are
- * ISO 8601 in UTC. Read in id order, a chunk at a time (keyset paging on measurements.id).
+ * ISO 8601 in UTC. Read in id order, a chunk at a time (keyset paging on measurements.id). The CROSS JOIN makes
+ * SQLite walk measurements in id order (its rule for CROSS JOIN: the left table is the outer loop); with a plain
+ * join it starts from a filtered test_runs index and sorts the whole selection again for every chunk.
  */
 @Injectable()
 export class MeasurementExportService {
@@ -45,7 +47,7 @@ export class MeasurementExportService {
         `select m.id, r.id as run_id, u.serial, l.code as lot, p.part_number, s.code as station, fx.code as fixture,
            us.display_name as operator, r.attempt, r.verdict as run_verdict, r.started_at, m.step_key, m.step_name, m.quantity,
            m.name, m.value, m.unit, m.low_limit, m.high_limit, m.guarded_low, m.guarded_high, m.verdict, m.measured_at
-         from measurements m join test_runs r on r.id = m.run_id join units u on u.id = r.unit_id join lots l on l.id = r.lot_id
+         from measurements m cross join test_runs r on r.id = m.run_id join units u on u.id = r.unit_id join lots l on l.id = r.lot_id
            join products p on p.id = r.product_id join stations s on s.id = r.station_id join fixtures fx on fx.id = r.fixture_id
            join users us on us.id = r.operator_id
          where m.id > ?${where.sql}${ownSql}

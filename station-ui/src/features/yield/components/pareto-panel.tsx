@@ -41,7 +41,7 @@ export function ParetoPanel({ filters, by, onByChange, selected, onSelect }: Par
         />
         {pareto.data && (
           <Text size="sm" c="dimmed">
-            <Text span ff="monospace">{pareto.data.failedRuns}</Text> failing runs · click a bar or a row to list its units
+            <Text span ff="monospace">{pareto.data.failedRuns}</Text> failing {pareto.data.failedRuns === 1 ? 'run' : 'runs'} · click a bar or a row to list its units
           </Text>
         )}
       </Group>
