@@ -85,6 +85,8 @@ describe('quality screen (real browser)', () => {
     await screenshot(page, 'quality-1920');
     await page.getByRole('heading', { name: 'Capability and control chart' }).scrollIntoViewIfNeeded();
     await screenshot(page, 'quality-capability-1920');
+    await page.getByRole('region', { name: 'Run-rule findings' }).scrollIntoViewIfNeeded();
+    await screenshot(page, 'quality-control-chart-1920');
     await page.setViewportSize({ width: 1024, height: 768 });
     await page.evaluate(() => window.scrollTo(0, 0));
     await screenshot(page, 'quality-1024');

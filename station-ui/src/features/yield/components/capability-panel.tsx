@@ -133,8 +133,8 @@ function CapabilityFigures({ view }: { view: CapabilityView }) {
           {([['with σ within', c.ppmWithin], ['with σ overall', c.ppmOverall]] as const).map(([label, p]) => (
             <Table.Tr key={label}>
               <Table.Th scope="row">{label}</Table.Th>
-              <Table.Td ff="monospace">{ppmText(p.below)}</Table.Td>
-              <Table.Td ff="monospace">{ppmText(p.above)}</Table.Td>
+              <Table.Td ff="monospace">{view.limits.lowLimit === null ? 'no limit' : ppmText(p.below)}</Table.Td>
+              <Table.Td ff="monospace">{view.limits.highLimit === null ? 'no limit' : ppmText(p.above)}</Table.Td>
               <Table.Td ff="monospace" fw={600}>{ppmText(p.total)}</Table.Td>
             </Table.Tr>
           ))}

@@ -68,11 +68,12 @@ export function ControlChartPanel({ filters, selection, options }: ControlChartP
     ...(alwaysLower || p.lower > 0 ? [{ y: p.lower, label: `LCL ${formatFigure(p.lower, digits)}`, color: 'signalRed.7', strokeDasharray: '6 4' }] : []),
   ];
   const spreadData = v.spread.points.map((p) => ({ n: p.index + 1, value: p.value, who: p.label }));
-  const domainOf = (p: ChartPanel, values: number[]) => {
+  // a little room around the limits; a range is never negative, so its axis starts at 0
+  const domainOf = (p: ChartPanel, values: number[], floorAtZero: boolean) => {
     const lo = Math.min(p.lower, ...values);
     const hi = Math.max(p.upper, ...values);
     const pad = (hi - lo) * 0.08 || 1;
-    return [lo - pad, hi + pad];
+    return [floorAtZero ? Math.max(0, lo - pad) : lo - pad, hi + pad];
   };
   return (
     <Stack gap="sm">
@@ -87,7 +88,7 @@ export function ControlChartPanel({ filters, selection, options }: ControlChartP
         series={[{ name: 'value', label: locName, color: 'slate.7' }]}
         referenceLines={limitLines(v.location, d, true)}
         referenceDots={[...findings.keys()].map((i) => ({ x: i + 1, y: v.location!.points[i].value, r: 6, color: 'signalRed.6', stroke: 'none', ifOverflow: 'extendDomain' as const }))}
-        yAxisProps={{ domain: domainOf(v.location, data.map((p) => p.value)), tickFormatter: (x: number) => formatFigure(x, d) }}
+        yAxisProps={{ domain: domainOf(v.location, data.map((p) => p.value), false), tickFormatter: (x: number) => formatFigure(x, d) }}
         xAxisLabel={isX ? 'Subgroup' : 'Unit (run order)'}
         yAxisLabel={`${locName} (${v.unit})`}
         curveType="linear"
@@ -102,7 +103,7 @@ export function ControlChartPanel({ filters, selection, options }: ControlChartP
         dataKey="n"
         series={[{ name: 'value', label: isX ? 'Range' : 'Moving range', color: 'slate.5' }]}
         referenceLines={limitLines(v.spread, d, false)}
-        yAxisProps={{ domain: domainOf(v.spread, spreadData.map((p) => p.value)), tickFormatter: (x: number) => formatFigure(x, d) }}
+        yAxisProps={{ domain: domainOf(v.spread, spreadData.map((p) => p.value), true), tickFormatter: (x: number) => formatFigure(x, d) }}
         yAxisLabel={`${isX ? 'Range' : 'Moving range'} (${v.unit})`}
         curveType="linear"
         withDots
