@@ -20,6 +20,7 @@ import { BoardModule } from './board/board.module';
 import { RepairModule } from './repair/repair.module';
 import { ShiftModule } from './shift/shift.module';
 import { SimulationModule } from './simulation/simulation.module';
+import { YieldModule } from './yield/yield.module';
 
 function staticUi(): DynamicModule[] {
   const dist = loadEnv().UI_DIST;
@@ -43,6 +44,7 @@ function staticUi(): DynamicModule[] {
     ShiftModule,
     BoardModule,
     RepairModule,
+    YieldModule,
     ...staticUi(),
   ],
 })

@@ -72,6 +72,14 @@ export const ROUTE_POLICY: Readonly<Record<string, RoutePolicy>> = {
   'GET /api/repair-queue': { allow: ALL },
   'POST /api/units/:serial/repair': { allow: ['engineer', 'quality', 'admin'] },
   'POST /api/units/:serial/send-to-repair': { allow: TESTERS },
+  // yield and capability (read-only aggregates)
+  'GET /api/yield/figures': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/yield/pareto': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/yield/pareto/units': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/yield/quantities': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/yield/capability': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/yield/control-chart': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/yield/measurements.csv': { allow: ['engineer', 'quality', 'admin'] },
 };
 
 /** Live events (socket.io): who may join which room. Rights are checked again on every join. */

@@ -39,7 +39,7 @@ export const pages = {
   fixtures: page('/fixtures', 'Fixtures', 'engineering', ['engineer']),
   lots: page('/lots', 'Lots', 'engineering', ['engineer', 'quality']),
   runs: page('/runs', 'Runs', 'engineering', ['engineer', 'quality']),
-  quality: page('/quality', 'Quality', 'quality', ['quality']),
+  quality: page('/quality', 'Quality', 'quality', ['engineer', 'quality']),
   adminUsers: page('/admin/users', 'Users', 'admin', ['admin']),
   adminAudit: page('/admin/audit', 'Audit log', 'admin', ['admin']),
 } as const satisfies Record<string, PageDef>;

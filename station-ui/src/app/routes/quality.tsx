@@ -1,5 +1,7 @@
-import { PlaceholderPage } from '@/components/layout/placeholder-page';
+// chart styles only on this lazily loaded page, so the operator screen does not carry them
+import '@mantine/charts/styles.css';
+import { QualityScreen } from '@/features/yield/components/quality-screen';
 
 export default function QualityRoute() {
-  return <PlaceholderPage title="Quality" purpose="First-pass yield, failure Pareto, capability and control charts." />;
+  return <QualityScreen />;
 }

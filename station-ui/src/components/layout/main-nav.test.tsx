@@ -14,7 +14,7 @@ function linkNames(): string[] {
 // Expected sets come from the task brief (role → navigation); order is the fixed order of config/paths.ts.
 const cases: [Role[], string[]][] = [
   [['operator'], ['Station', 'Board']],
-  [['engineer'], ['Station', 'Board', 'Repair', 'Plans', 'Fixtures', 'Lots', 'Runs']],
+  [['engineer'], ['Station', 'Board', 'Repair', 'Plans', 'Fixtures', 'Lots', 'Runs', 'Quality']],
   [['quality'], ['Board', 'Repair', 'Lots', 'Runs', 'Quality']],
   [['admin'], ['Station', 'Board', 'Repair', 'Plans', 'Fixtures', 'Lots', 'Runs', 'Quality', 'Users', 'Audit log']],
   [['operator', 'quality'], ['Station', 'Board', 'Repair', 'Lots', 'Runs', 'Quality']],
