@@ -128,6 +128,15 @@ describe('run engine through the simulated fixture', () => {
       const status = await h.http().get(`/api/stations/${stationId}/status`).set('Authorization', `Bearer ${h.token}`).expect(200);
       expect(status.body.state).toBe('fault');
       expect(status.body.reasons).toEqual([expect.stringMatching(/^Fixture FX-101: did not confirm that its load and source are off\. Switch the fixture's source and load off by hand/)]);
+      // and no run starts on it: power is never applied to a fixture that may still be live
+      const refused = await h
+        .http()
+        .post(`/api/stations/${stationId}/runs`)
+        .set('Authorization', `Bearer ${h.token}`)
+        .send({ serial: take(), safetyConfirmed: true })
+        .expect(409);
+      expect(refused.body.details.code).toBe('station_blocked');
+      expect(refused.body.message).toMatch(/did not confirm that its load and source are off/);
       stop();
       sim.mute = false;
       for (let i = 0; i < 40; i++) {

@@ -44,7 +44,7 @@ export class RunEngineService implements OnApplicationBootstrap, BeforeApplicati
     plans: PlansService,
     @Optional() private readonly audit?: AuditService,
   ) {
-    this.preconditions = new RunPreconditions(plans, this.active);
+    this.preconditions = new RunPreconditions(plans, this.active, (id) => this.links.faultOf(id));
     this.records = new RunRecords(em, audit);
     this.stationStatus = new StationStatusService(em, links, events, this.preconditions, this.active);
     this.executor = new RunExecutor(events, new MeasurementStore(em), this.records, this.active);

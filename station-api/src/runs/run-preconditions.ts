@@ -40,6 +40,8 @@ export class RunPreconditions {
   constructor(
     private readonly plans: PlansService,
     private readonly active: ActiveRuns,
+    /** The fixture link's present fault of a fixture, if any (a fixture not confirmed off blocks testing) */
+    private readonly faultOf: (fixtureId: number) => { code: string; message: string } | undefined = () => undefined,
   ) {}
 
   /** The plan version the product is tested with (newest released), or null. */
@@ -72,6 +74,12 @@ export class RunPreconditions {
     });
     if (r.blocking.length > 0 || !fixture || !lot || !plan) {
       throw new RunRefusal('station_blocked', `Station ${station.code} cannot test now: ${r.blocking.join('; ')}.`, { reasons: r.blocking });
+    }
+    // a fixture that did not read back load off and source off may still be powered: nobody opens or
+    // re-powers it until a person has switched it off and it confirms (other faults are retried at start)
+    const fault = this.faultOf(fixture.id);
+    if (fault?.code === 'not_safe') {
+      throw new RunRefusal('station_blocked', `Station ${station.code} cannot test now: ${fault.message}`, { reasons: [fault.message] });
     }
 
     const serial = normaliseSerial(rawSerial);
