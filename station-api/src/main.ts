@@ -1,11 +1,16 @@
 import 'reflect-metadata';
 import { Logger } from '@nestjs/common';
 import { NestFactory } from '@nestjs/core';
+import { existsSync } from 'node:fs';
 import { configureApp } from './app.setup';
 import { demoSecret } from './config/demo-secret';
 import { EnvironmentVariables, loadEnv, requireJwtSecret } from './config/env.validation';
 
 async function bootstrap(): Promise<void> {
+  // a .env file in the working folder, read before the settings are checked (the ConfigModule reads it too,
+  // but only once the app module loads, which is after the secret and the database are checked); variables
+  // already set in the environment win over the file
+  if (existsSync('.env')) process.loadEnvFile('.env');
   let env = loadEnv();
   if (!env.JWT_SECRET && env.RAILWRIGHT_DEMO === '1') {
     // demo only: a random secret kept beside the database, made on first start
