@@ -1,4 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import { apiPaths } from '@/config/paths';
 import { api } from '@/lib/api-client';
 
 /**
@@ -9,7 +10,7 @@ import { api } from '@/lib/api-client';
 export const planAttemptsQueryKey = (planVersionId: number) => ['plan-versions', planVersionId, 'max-attempts'] as const;
 
 export async function getPlanMaxAttempts(planVersionId: number): Promise<number> {
-  const v = await api.get<{ maxAttempts: number }>(`/plan-versions/${planVersionId}`);
+  const v = await api.get<{ maxAttempts: number }>(apiPaths.planVersion(planVersionId));
   return v.maxAttempts;
 }
 
