@@ -1,6 +1,5 @@
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { apiPaths, pages } from '../src/config/paths';
 import { launchBrowser, newPage, screenshot } from './support/browser';
 import { startStationServer, type StationServer } from './support/server';
 import { signInAs } from './support/sign-in';
@@ -122,7 +121,7 @@ async function checkAtEverySize(name: string): Promise<void> {
 }
 
 async function runsOf(serial: string): Promise<{ id: number; verdict: string }[]> {
-  const res = await api<{ items: { id: number; verdict: string }[] }>(server.baseUrl, token, `${apiPaths.runs}?serial=${encodeURIComponent(serial)}`);
+  const res = await api<{ items: { id: number; verdict: string }[] }>(server.baseUrl, token, `/runs?serial=${encodeURIComponent(serial)}`);
   return res.items;
 }
 
@@ -144,7 +143,7 @@ afterAll(async () => {
 describe('operator station: safety prompt, verdict and layout (real browser)', () => {
   it('the ready screen holds at 1024×768, 1440×900 and 1920×1080', async () => {
     await signInAs(page, 'operator');
-    await page.waitForURL(`**${pages.station.path}`);
+    await page.waitForURL('**/station');
     await page.getByRole('button', { name: /^EOL-1,/ }).click();
     await page.getByTestId('ready-prompt').waitFor();
     await page.getByTestId('shift-tested').waitFor();

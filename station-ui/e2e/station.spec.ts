@@ -1,7 +1,6 @@
 import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { apiBase, apiPaths, pages } from '../src/config/paths';
 import { summariseLatencies } from '../src/features/station/paint-latency';
 import { launchBrowser, newPage, screenshot } from './support/browser';
 import { startStationServer, type StationServer } from './support/server';
@@ -75,7 +74,7 @@ afterAll(async () => {
 describe('operator station (real browser, simulated fixture at realistic timing)', () => {
   it('operator signs in, picks EOL-1 from the keyboard and sees it ready', async () => {
     await signInAs(page, 'operator');
-    await page.waitForURL(`**${pages.station.path}`);
+    await page.waitForURL('**/station');
     await page.getByRole('heading', { name: 'Which station is this?' }).waitFor();
     const choice = page.getByRole('button', { name: /^EOL-1,/ });
     await choice.waitFor();
@@ -148,25 +147,20 @@ describe('operator station (real browser, simulated fixture at realistic timing)
     await screenshot(page, 'station-fail');
 
     // the tag the print button sends: fetched with the operator's token, a real PDF
-    const failedRunsUrl = `${apiBase}${apiPaths.runs}?verdict=fail&limit=1`;
-    const failedRunId = await page.evaluate(async (url) => {
+    const tag = await page.evaluate(async () => {
       const auth = { Authorization: `Bearer ${localStorage.getItem('railwright.token')}` };
-      const runs = await fetch(url, { headers: auth }).then((r) => r.json());
-      return runs.items[0].id as number;
-    }, failedRunsUrl);
-    const tag = await page.evaluate(async (url) => {
-      const auth = { Authorization: `Bearer ${localStorage.getItem('railwright.token')}` };
-      const res = await fetch(url, { headers: auth });
+      const runs = await fetch('/api/runs?verdict=fail&limit=1', { headers: auth }).then((r) => r.json());
+      const res = await fetch(`/api/runs/${runs.items[0].id}/repair-tag.pdf`, { headers: auth });
       const bytes = new Uint8Array(await res.arrayBuffer());
       return { status: res.status, type: res.headers.get('content-type'), head: String.fromCharCode(...bytes.slice(0, 5)) };
-    }, `${apiBase}${apiPaths.runRepairTag(failedRunId)}`);
+    });
     expect(tag).toEqual({ status: 200, type: 'application/pdf', head: '%PDF-' });
   });
 
   it('the board shows both runs on EOL-1', async () => {
     const board = await context.newPage();
     try {
-      await board.goto(pages.board.path);
+      await board.goto('/board');
       const tile = board.getByTestId('tile-EOL-1');
       await tile.waitFor();
       const marks = tile.getByRole('list', { name: 'Last verdicts, newest first' }).getByRole('listitem');
