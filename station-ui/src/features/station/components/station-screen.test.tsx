@@ -257,7 +257,7 @@ describe('StationScreen', () => {
     await user.type(field, 'K5A-2648-99999{Enter}');
     await screen.findByTestId('refusal');
     expect(screen.queryByTestId('verdict')).toBeNull();
-  });
+  }, 15_000);
 
   it('Esc twice stops a running test', async () => {
     const { user, field } = await openStation();
