@@ -166,7 +166,9 @@ describe('operator station (real browser, simulated fixture at realistic timing)
       const marks = tile.getByRole('list', { name: 'Last verdicts, newest first' }).getByRole('listitem');
       expect(await marks.evaluateAll((li) => li.map((l) => l.getAttribute('data-verdict')))).toEqual(['fail', 'pass']);
       const words = await marks.evaluateAll((li) => li.map((l) => l.getAttribute('title')));
-      expect(words).toEqual([`FAIL · ${units.defective}`, `PASS · ${units.good[0]}`]);
+      // each mark names the verdict, the unit and the time it finished (hh:mm, the board's clock)
+      expect(words.map((w) => w?.replace(/ · \d\d:\d\d$/, ''))).toEqual([`FAIL · ${units.defective}`, `PASS · ${units.good[0]}`]);
+      for (const w of words) expect(w).toMatch(/ · \d\d:\d\d$/);
       expect(await board.getByTestId('tested-EOL-1').innerText()).toBe('2');
       expect(await board.getByTestId('fpy-EOL-1').innerText()).toBe('50.0%');
     } finally {

@@ -101,6 +101,10 @@ export const apiPaths = {
   run: (id: number) => `/runs/${id}`,
   runAbort: (id: number) => `/runs/${id}/abort`,
   runRepairTag: (id: number) => `/runs/${id}/repair-tag.pdf`,
+  /** one plan version (the station reads how many attempts it allows) */
+  planVersion: (id: number) => `/plan-versions/${id}`,
+  /** the operator sends a failed unit to repair although it has attempts left */
+  unitSendToRepair: (serial: string) => `/units/${encodeURIComponent(serial)}/send-to-repair`,
   // the runs list (filters: stationId, lotId, serial, verdict, from, to, limit, offset) and its filter choices
   runs: '/runs',
   lots: '/lots',

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { ApiError } from '@/lib/api-client';
-import { describeRefusal, type RefusalCode } from './refusal-messages';
+import { REFUSAL_CODES } from '@contract/refusal-codes';
+import { describeRefusal } from './refusal-messages';
 
 const refusal = (status: number, code: string, details: Record<string, unknown> = {}, message = 'server text') =>
   new ApiError(status, 'Conflict', message, { code, ...details });
@@ -8,23 +9,27 @@ const refusal = (status: number, code: string, details: Record<string, unknown> 
 const ctx = { serial: 'K5A-2648-00017', partNumber: 'OB-BK0503' };
 
 describe('describeRefusal', () => {
-  it('gives every refusal code of the contract its own headline', () => {
-    const codes: [RefusalCode, number][] = [
-      ['unknown_serial', 404],
-      ['not_a_serial', 422],
-      ['pattern_mismatch', 422],
-      ['wrong_lot', 409],
-      ['already_passed', 409],
-      ['retest_limit', 409],
-      ['station_blocked', 409],
-      ['station_busy', 409],
-    ];
-    const titles = codes.map(([code, status]) => {
-      const m = describeRefusal(refusal(status, code), ctx);
+  it('gives every refusal code of the server\'s list its own headline', () => {
+    // the list itself, not a copy: a code the server adds is checked here without editing this test
+    const titles = REFUSAL_CODES.map((code) => {
+      const m = describeRefusal(refusal(409, code), ctx);
       expect(m.code).toBe(code);
       return m.title;
     });
-    expect(new Set(titles).size).toBe(codes.length);
+    expect(new Set(titles).size).toBe(REFUSAL_CODES.length);
+  });
+
+  it('a unit under test at another station is named as such, with that station (regression: it read "Scan refused")', () => {
+    const m = describeRefusal(refusal(409, 'unit_busy', { station: 'EOL-2' }), ctx);
+    expect(m.code).toBe('unit_busy');
+    expect(m.title).toBe('Unit under test elsewhere');
+    expect(m.detail).toContain('K5A-2648-00017 is being tested at EOL-2');
+  });
+
+  it('a code the server does not list is refused with the server\'s own words', () => {
+    const m = describeRefusal(refusal(409, 'no_such_code', {}, 'The server said why.'), ctx);
+    expect(m.code).toBe('other');
+    expect(m.detail).toBe('The server said why.');
   });
 
   it('unknown serial names the serial', () => {

@@ -1,24 +1,20 @@
+import { isRefusalCode, type RefusalCode } from '@contract/refusal-codes';
 import { isApiError } from '@/lib/api-client';
 
-/** Why the server would not start a test on a scanned unit (`details.code`, docs/architecture.md). */
-export type RefusalCode =
-  | 'unknown_serial'
-  /** text that cannot be a serial at all (spaces, characters no label carries) */
-  | 'not_a_serial'
-  | 'pattern_mismatch'
-  | 'wrong_lot'
-  | 'already_passed'
-  | 'retest_limit'
-  | 'station_blocked'
-  | 'station_busy'
-  | 'unit_not_testable'
-  | 'override_not_allowed'
-  | 'station_not_found';
+/** Why the server would not start a test (`details.code`): the server's own list (station-api/src/contract). */
+export type { RefusalCode };
+
+/**
+ * What this screen says when no server code applies: the scan never reached the server (`no_server`), the
+ * live link is down so nothing may start (`no_link`), the server refused the input without a code
+ * (`invalid_scan`), or anything else (`other`). Kept apart from the server's list on purpose.
+ */
+export type LocalRefusalKind = 'invalid_scan' | 'no_server' | 'no_link' | 'other';
 
 /** What the operator reads after a refused scan: a headline for two metres away and one plain sentence. */
 export interface RefusalMessage {
   /** `details.code`, or a local kind when the server sent none */
-  code: RefusalCode | 'invalid_scan' | 'no_server' | 'no_link' | 'other';
+  code: RefusalCode | LocalRefusalKind;
   title: string;
   detail: string;
   /** True when an engineer may test the unit anyway after giving a reason */
@@ -61,7 +57,8 @@ export function describeRefusal(error: unknown, ctx: RefusalContext): RefusalMes
     return { code: 'no_server', title: 'Station server not reachable', detail: 'Nothing was started. Check the network cable, then scan again.' };
   }
   const d = detailsOf(error);
-  switch (error.code as RefusalCode | undefined) {
+  const code = isRefusalCode(error.code) ? error.code : undefined;
+  switch (code) {
     case 'unknown_serial':
       return {
         code: 'unknown_serial',
@@ -138,10 +135,28 @@ export function describeRefusal(error: unknown, ctx: RefusalContext): RefusalMes
         title: 'Engineer needed',
         detail: `Only an engineer can test ${serial} again: it has already passed.`,
       };
+    case 'unit_busy': {
+      const where = text(d.station);
+      return {
+        code: 'unit_busy',
+        title: 'Unit under test elsewhere',
+        detail: where
+          ? `${serial} is being tested at ${where} right now. Wait for that test to end, then scan it again.`
+          : `${serial} is being tested on another station right now. Wait for that test to end, then scan it again.`,
+      };
+    }
     case 'station_not_found':
       return { code: 'station_not_found', title: 'Station not found', detail: 'This station no longer exists. Choose the station again.' };
-    default:
+    // a stop request's answers: the run is gone or has already ended
+    case 'run_not_found':
+      return { code: 'run_not_found', title: 'Run not found', detail: `${error.message} Scan the unit again.` };
+    case 'run_finished':
+      return { code: 'run_finished', title: 'Run already finished', detail: 'The test had ended before the stop arrived; its verdict is shown.' };
+    case undefined:
       break;
+    default:
+      // a code the server added that this screen has no words for yet fails the type-check here
+      return code satisfies never;
   }
   if (error.status === 400) {
     return { code: 'invalid_scan', title: 'Scan not read', detail: `${error.message}. Scan the label again.` };

@@ -1,5 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import { apiPaths } from '@/config/paths';
 import { api } from '@/lib/api-client';
+import type { ApiAnswer } from '@/lib/api-schema';
 
 /**
  * How many attempts a plan version allows. The scan answer carries it (and seeds this cache); after a
@@ -9,7 +11,7 @@ import { api } from '@/lib/api-client';
 export const planAttemptsQueryKey = (planVersionId: number) => ['plan-versions', planVersionId, 'max-attempts'] as const;
 
 export async function getPlanMaxAttempts(planVersionId: number): Promise<number> {
-  const v = await api.get<{ maxAttempts: number }>(`/plan-versions/${planVersionId}`);
+  const v = await api.get<ApiAnswer<'PlansController_getVersion'>>(apiPaths.planVersion(planVersionId));
   return v.maxAttempts;
 }
 

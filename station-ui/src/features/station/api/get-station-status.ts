@@ -1,21 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { StationState } from '@station-events';
 import { apiPaths } from '@/config/paths';
 import { api } from '@/lib/api-client';
+import type { ApiAnswer } from '@/lib/api-schema';
 
 /** `GET /api/stations/:id/status`: the state, why it is not ready, the fixture and the lot it runs. */
-export interface StationStatus {
-  stationId: number;
-  stationCode: string;
-  stationName: string;
-  state: StationState;
-  /** Why the station cannot test, in plain words; empty when ready or testing */
-  reasons: string[];
-  currentRunId?: number;
-  currentSerial?: string;
-  fixture: { id: number; code: string; calibrationDueAt: string; contactCyclesUsed: number; contactCyclesAllowed: number } | null;
-  activeLot: { id: number; code: string; partNumber: string; state: string } | null;
-}
+export type StationStatus = ApiAnswer<'StationRunsController_status'>;
 
 export const stationStatusQueryKey = (stationId: number) => ['stations', stationId, 'status'] as const;
 

@@ -1,20 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { StationState } from '@station-events';
 import { apiPaths } from '@/config/paths';
 import { api } from '@/lib/api-client';
+import type { StationDto } from '@/lib/api-schema';
 
-/** A station as `GET /api/stations` lists it (the fields this screen uses). */
-export interface StationSummary {
-  id: number;
-  code: string;
-  name: string;
-  location: string | null;
-  active: boolean;
-  fixture: { id: number; code: string } | null;
-  activeLot: { id: number; code: string; partNumber: string } | null;
-  state: StationState;
-  reasons: string[];
-}
+/** A station as `GET /api/stations` lists it. */
+export type StationSummary = StationDto;
 
 export const stationsQueryKey = ['stations', 'list'] as const;
 

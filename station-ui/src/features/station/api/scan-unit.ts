@@ -1,25 +1,10 @@
 import { useMutation } from '@tanstack/react-query';
-import type { StepOutline, UnitView } from '@station-events';
 import { apiPaths } from '@/config/paths';
 import { api } from '@/lib/api-client';
+import type { ApiAnswer, Schemas } from '@/lib/api-schema';
 
 /** `POST /api/stations/:id/scan` → what the server checked and found; nothing is powered. */
-export interface ScanResult {
-  unit: UnitView;
-  lot: { id: number; code: string; state: string };
-  product: { id: number; partNumber: string; name: string; vinNomV: number; voutNomV: number; ioutRatedA: number };
-  /** The attempt this run would be (1 = first test) */
-  attempt: number;
-  plan: {
-    versionId: number;
-    code: string;
-    name: string;
-    version: number;
-    stopAtFirstFailure: boolean;
-    maxAttempts: number;
-    steps: StepOutline[];
-  };
-}
+export type ScanResult = ApiAnswer<'StationRunsController_scan'>;
 
 export interface ScanInput {
   stationId: number;
@@ -27,7 +12,7 @@ export interface ScanInput {
 }
 
 export function scanUnit({ stationId, serial }: ScanInput): Promise<ScanResult> {
-  return api.post<ScanResult>(apiPaths.stationScan(stationId), { serial });
+  return api.post<ScanResult>(apiPaths.stationScan(stationId), { serial } satisfies Schemas['ScanDto']);
 }
 
 export function useScanUnit() {

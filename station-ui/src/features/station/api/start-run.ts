@@ -2,6 +2,7 @@ import { useMutation } from '@tanstack/react-query';
 import type { RunView } from '@station-events';
 import { apiPaths } from '@/config/paths';
 import { api } from '@/lib/api-client';
+import type { Schemas } from '@/lib/api-schema';
 
 export interface StartRunInput {
   stationId: number;
@@ -15,11 +16,9 @@ export interface StartRunInput {
  * `safetyConfirmed` is always true here; the run goes on in the background and reports by live events.
  */
 export function startRun({ stationId, serial, overrideReason }: StartRunInput): Promise<{ run: RunView }> {
-  return api.post<{ run: RunView }>(apiPaths.stationRuns(stationId), {
-    serial,
-    safetyConfirmed: true,
-    ...(overrideReason ? { overrideReason } : {}),
-  });
+  const body: Schemas['StartRunDto'] = { serial, safetyConfirmed: true, ...(overrideReason ? { overrideReason } : {}) };
+  // the answer is read as the live events' RunView (the server's own type), which the screen's run model uses
+  return api.post<{ run: RunView }>(apiPaths.stationRuns(stationId), body);
 }
 
 export function useStartRun() {

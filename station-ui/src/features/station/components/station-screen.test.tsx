@@ -2,6 +2,7 @@ import { act, screen, waitFor, within } from '@testing-library/react';
 import type { MeasurementJudgedPayload, RunFinishedPayload, RunStartedPayload, StationStatePayload } from '@station-events';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { FakeSocket, fireOn } from '@/testing/fake-socket';
+import { meQueryKey } from '@/lib/auth';
 import { jsonResponse, makeUser, renderApp } from '@/testing/render';
 import { measurementFor, sampleRun, sampleSteps, sampleUnit } from '../test-data';
 import { StationScreen } from './station-screen';
@@ -256,7 +257,7 @@ describe('StationScreen', () => {
     await user.type(field, 'K5A-2648-99999{Enter}');
     await screen.findByTestId('refusal');
     expect(screen.queryByTestId('verdict')).toBeNull();
-  });
+  }, 15_000);
 
   it('Esc twice stops a running test', async () => {
     const { user, field } = await openStation();
@@ -303,6 +304,32 @@ describe('StationScreen', () => {
     await fire('connect_error', new Error('xhr poll error'));
     expect(screen.getByTestId('link-mark')).toHaveTextContent('Server not reachable');
     expect(screen.getByTestId('offline')).toBeInTheDocument();
+  });
+
+  it('rejoins the station room after a reconnect and asks for what it missed (status, run, shift counters)', async () => {
+    await openStation();
+    const gets = (path: string) => calls.filter((c) => c.method === 'GET' && c.path === path).length;
+    const before = { status: gets('/api/stations/1/status'), shift: gets('/api/stations/1/shift-summary') };
+    await fire('disconnect', 'transport close');
+    await fire('connect', undefined);
+    expect(live().sent.filter((m) => m.event === 'station:join')).toEqual([
+      { event: 'station:join', body: { stationId: 1 } },
+      { event: 'station:join', body: { stationId: 1 } },
+    ]);
+    await waitFor(() => expect(gets('/api/stations/1/shift-summary')).toBeGreaterThan(before.shift));
+    expect(gets('/api/stations/1/status')).toBeGreaterThan(before.status);
+    expect(await screen.findByTestId('ready-prompt')).toBeInTheDocument();
+  });
+
+  it('a session the server ends (auth:error) leads to signing in again; nothing looks READY meanwhile', async () => {
+    const { queryClient } = await openStation();
+    await fire('auth:error', { message: 'Your session has ended.' });
+    // the shell asks who is signed in; the server's 401 then leads to the sign-in page
+    expect(queryClient.getQueryState(meQueryKey)?.isInvalidated).toBe(true);
+    expect(screen.getByTestId('live-link-banner')).toHaveTextContent('Live link refused: sign in again');
+    expect(screen.getByTestId('link-mark')).toHaveTextContent('Server not reachable');
+    expect(screen.queryByText('READY')).toBeNull();
+    expect(screen.getByTestId('offline')).toHaveTextContent('sign in again');
   });
 
   it('a scanner burst while the prompt is open cancels it (no power) and becomes the next scan', async () => {

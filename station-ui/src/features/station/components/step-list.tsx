@@ -1,6 +1,7 @@
 import type { LimitView, MeasurementView, StepOutline } from '@station-events';
 import { useEffect, useLayoutEffect, useRef } from 'react';
 import { VerdictBadge } from '@/components/verdict';
+import { decisionWords } from '@contract/run-outcome';
 import { formatLimits, formatMeasured, formatValue } from '@contract/value-format';
 import { limitStatus, measurementKey, stepStatus, type LiveRun, type StepStatus } from '../live-run';
 import { recordPaintLatency } from '../paint-latency';
@@ -10,22 +11,6 @@ interface MeasuredValueProps {
   measurement: MeasurementView | undefined;
   limit: LimitView;
   emittedAtMs?: number;
-}
-
-/** The ILAC-G8 decision statement (measurements.decision), in the words every screen uses. */
-export type DecisionName = 'pass' | 'conditional_pass' | 'conditional_fail' | 'fail';
-
-export const decisionWords: Record<DecisionName, string> = {
-  pass: 'pass',
-  conditional_pass: 'pass, within uncertainty',
-  conditional_fail: 'fail, within uncertainty',
-  fail: 'fail',
-};
-
-/** The decision a measurement carries, if the server sent one (the field is new; older servers omit it). */
-export function decisionOf(m: MeasurementView | undefined): DecisionName | null {
-  const d = (m as (MeasurementView & { decision?: unknown }) | undefined)?.decision;
-  return typeof d === 'string' && Object.hasOwn(decisionWords, d) ? (d as DecisionName) : null;
 }
 
 /** The value cell: a dash until the value arrives, then the figure; its width never changes. */
@@ -67,13 +52,14 @@ function ResultMark({ status }: { status: StepStatus }) {
 }
 
 function ResultCell({ status, measurement }: { status: StepStatus; measurement?: MeasurementView }) {
-  const decision = decisionOf(measurement);
+  // null until a value arrives, and for a value stored before decisions were kept
+  const decision = decisionWords(measurement?.decision);
   return (
     <>
       <ResultMark status={status} />
       {/* the decision's line is kept even when empty, so a row never grows when a value arrives */}
       <span className={classes.decision} data-testid="decision" data-visible={decision ? 'yes' : 'no'}>
-        {decision ? decisionWords[decision] : '\u00a0'}
+        {decision ?? '\u00a0'}
       </span>
     </>
   );
