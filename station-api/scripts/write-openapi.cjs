@@ -31,6 +31,8 @@ async function main() {
     SEED_HISTORY: '0',
     LOG_LEVEL: 'error',
     UI_DIST: '',
+    // only signs nothing here; the settings check wants one of at least 32 bytes
+    JWT_SECRET: 'openapi-writer-throwaway-secret-0123456789',
   });
   require('reflect-metadata');
   const { NestFactory } = require('@nestjs/core');
