@@ -27,6 +27,23 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/auth/board-token": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /** Issue a board display token (30 days) for a wall screen; it opens the board only */
+        post: operations["AuthController_boardToken"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/auth/login": {
         parameters: {
             query?: never;
@@ -68,8 +85,8 @@ export interface paths {
             path?: never;
             cookie?: never;
         };
-        /** Every active station with its state, current run, last 8 runs and shift counters; join the socket room "board" for updates */
-        get: operations["FloorController_snapshot"];
+        /** Every active station with its state, current run, this shift's last 8 finished runs (with finish times) and shift counters; join the socket room "board" for updates */
+        get: operations["BoardController_snapshot"];
         put?: never;
         post?: never;
         delete?: never;
@@ -326,8 +343,8 @@ export interface paths {
             path?: never;
             cookie?: never;
         };
-        /** Units waiting for repair (failed or in repair) with their last failing run; oldest failure first */
-        get: operations["FloorController_repairQueueList"];
+        /** Units waiting for repair with their last failing run, oldest failure first: units with no attempts left, units sent to repair by the operator, and units in repair */
+        get: operations["RepairQueueController_repairQueueList"];
         put?: never;
         post?: never;
         delete?: never;
@@ -395,7 +412,7 @@ export interface paths {
             cookie?: never;
         };
         /** Printable repair tag (PDF, 100 mm × 70 mm) of a failed run: serial as Code 128, where it was tested, what failed */
-        get: operations["FloorController_repairTag"];
+        get: operations["RepairQueueController_repairTag"];
         put?: never;
         post?: never;
         delete?: never;
@@ -481,7 +498,7 @@ export interface paths {
             cookie?: never;
         };
         /** The station's counters for the shift running now (shift starts from SHIFT_STARTS, server local time) */
-        get: operations["FloorController_shiftSummary"];
+        get: operations["ShiftController_shiftSummary"];
         put?: never;
         post?: never;
         delete?: never;
@@ -541,6 +558,23 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/units/{serial}/send-to-repair": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /** Send a failed unit to repair although it has attempts left (the retest policy keeps it off the repair queue otherwise). Audited with the note; sending it again changes nothing. */
+        post: operations["RepairController_sendToRepair"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/users": {
         parameters: {
             query?: never;
@@ -593,11 +627,132 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/yield/capability": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Histogram with limits, mean, σ, Cp/Cpk/Pp/Ppk with intervals and expected ppm of one quantity */
+        get: operations["YieldController_capability"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/yield/control-chart": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Individuals/moving-range or X̄–R chart of one quantity with Western Electric or Nelson rules */
+        get: operations["YieldController_controlChart"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/yield/figures": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** First-pass, final and rolled throughput yield with 95 % Wilson score intervals, a breakdown and a daily trend */
+        get: operations["YieldController_figures"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/yield/measurements.csv": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** The measurements behind the views as CSV (RFC 4180), with the same filters */
+        get: operations["YieldController_exportCsv"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/yield/pareto": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Failure Pareto of failing runs by step or by failing quantity, with the cumulative percentage */
+        get: operations["YieldController_pareto"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/yield/pareto/units": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** The failing measurements (serial, run, value, limits) behind one Pareto bar */
+        get: operations["YieldController_paretoUnits"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/yield/quantities": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** The measured quantities of a product (or lot), in plan order */
+        get: operations["YieldController_quantities"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
 }
 export type webhooks = Record<string, never>;
 export interface components {
     schemas: {
         AbortResultDto: {
+            /** @enum {string} */
+            endReason?: "operator_stop" | "server_shutdown" | "interrupted" | "fixture_fault" | "software_fault" | "implausible_reading" | "store_failed";
             errorMessage?: string;
             runId: number;
             /** @enum {string} */
@@ -634,7 +789,7 @@ export interface components {
             activeLot: components["schemas"]["BoardLotDto"] | null;
             currentRun: components["schemas"]["BoardCurrentRunDto"] | null;
             fixture: components["schemas"]["BoardFixtureDto"] | null;
-            /** @description the last 8 finished runs, newest first */
+            /** @description the last 8 runs finished in the shift running now (see shift.shiftStart), newest first, each with finishedAt */
             lastRuns: components["schemas"]["BoardLastRunDto"][];
             /** @description why the station is not ready, in plain words */
             reasons: string[];
@@ -666,6 +821,19 @@ export interface components {
             code: string;
             id: number;
             name: string;
+        };
+        BoardTokenDto: {
+            /** @description ISO 8601, UTC; 30 days after issue */
+            expiresAt: string;
+            /** @description JWT with scope "board": opens GET /api/board and the board room of the socket only */
+            token: string;
+        };
+        BoardTokenRequestDto: {
+            /**
+             * @description where the board is shown; kept in the audit trail
+             * @example Hall 2 wall screen
+             */
+            label: string;
         };
         ContactsReplacedDto: {
             /** @example Pogo pins replaced after 48 000 cycles */
@@ -843,6 +1011,11 @@ export interface components {
             unitCounts: components["schemas"]["UnitCountsDto"];
         };
         MeasurementDto: {
+            /**
+             * @description ILAC-G8:09/2019 §4.2.3 decision statement; null without a plausible value
+             * @enum {string|null}
+             */
+            decision: "pass" | "conditional_pass" | "conditional_fail" | "fail" | null;
             guardedHigh: number | null;
             guardedLow: number | null;
             highLimit: number | null;
@@ -1029,6 +1202,13 @@ export interface components {
             /** @description null only if no failing run is stored for the unit */
             lastFailingRun: components["schemas"]["RepairRunDto"] | null;
             lot: components["schemas"]["BoardLotDto"];
+            /**
+             * @description why the unit is on the queue: a failed unit with attempts left is not (it may be re-seated and tested again)
+             * @enum {string}
+             */
+            reason: "no_attempts_left" | "sent_by_operator" | "in_repair";
+            /** @description when the operator sent it to repair (ISO 8601); null: not sent */
+            sentToRepairAt: string | null;
             serial: string;
             /** @enum {string} */
             state: "failed" | "in_repair";
@@ -1062,6 +1242,11 @@ export interface components {
         RunDetailDto: {
             attempt: number;
             durationMs: number | null;
+            /**
+             * @description why the run ended without a judged verdict; null for pass, fail and running
+             * @enum {string|null}
+             */
+            endReason: "operator_stop" | "server_shutdown" | "interrupted" | "fixture_fault" | "software_fault" | "implausible_reading" | "store_failed" | null;
             errorMessage: string | null;
             failedStepKey: string | null;
             finishedAt: string | null;
@@ -1096,6 +1281,11 @@ export interface components {
         RunDto: {
             attempt: number;
             durationMs: number | null;
+            /**
+             * @description why the run ended without a judged verdict; null for pass, fail and running
+             * @enum {string|null}
+             */
+            endReason: "operator_stop" | "server_shutdown" | "interrupted" | "fixture_fault" | "software_fault" | "implausible_reading" | "store_failed" | null;
             errorMessage: string | null;
             failedStepKey: string | null;
             finishedAt: string | null;
@@ -1165,6 +1355,13 @@ export interface components {
             product: components["schemas"]["ScanProductDto"];
             unit: components["schemas"]["UnitViewDto"];
         };
+        SendToRepairDto: {
+            /**
+             * @description why the unit goes to repair with attempts left; kept as the reason in the audit trail
+             * @example Output low again after re-seating
+             */
+            note?: string;
+        };
         ShiftSummaryDto: {
             /** @description runs aborted (runs, not units) */
             aborted: number;
@@ -1185,7 +1382,7 @@ export interface components {
             stationId: number;
             /** @description distinct units with a pass or fail run finished here in the shift */
             tested: number;
-            /** @description pass/fail runs per hour of shift elapsed (at least 1 minute counted); null before the first */
+            /** @description units (pass/fail runs) finished in the last 60 minutes once the shift is an hour old; in the first hour, units ÷ hours elapsed from 3 units on; otherwise null (show "—") */
             unitsPerHour: number | null;
         };
         StartedRunDto: {
@@ -1276,6 +1473,8 @@ export interface components {
             lastTestedAt: string | null;
             lot: components["schemas"]["UnitLotDto"];
             product: components["schemas"]["ProductDto"];
+            /** @description when the operator sent the failed unit to repair (ISO 8601); null: not sent */
+            sentToRepairAt: string | null;
             /** @example K5A-2649-00017 */
             serial: string;
             /** @enum {string} */
@@ -1387,6 +1586,29 @@ export interface operations {
             };
         };
     };
+    AuthController_boardToken: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["BoardTokenRequestDto"];
+            };
+        };
+        responses: {
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["BoardTokenDto"];
+                };
+            };
+        };
+    };
     AuthController_login: {
         parameters: {
             query?: never;
@@ -1443,7 +1665,7 @@ export interface operations {
             };
         };
     };
-    FloorController_snapshot: {
+    BoardController_snapshot: {
         parameters: {
             query?: never;
             header?: never;
@@ -1888,7 +2110,7 @@ export interface operations {
             };
         };
     };
-    FloorController_repairQueueList: {
+    RepairQueueController_repairQueueList: {
         parameters: {
             query?: {
                 limit?: number;
@@ -2008,9 +2230,12 @@ export interface operations {
             };
         };
     };
-    FloorController_repairTag: {
+    RepairQueueController_repairTag: {
         parameters: {
-            query?: never;
+            query?: {
+                /** @description the label printer's resolution: the barcode's bars are laid out in whole dots of it */
+                dpi?: 203 | 300;
+            };
             header?: never;
             path: {
                 id: number;
@@ -2027,6 +2252,13 @@ export interface operations {
                 content: {
                     "application/pdf": string;
                 };
+            };
+            /** @description details.code bad_id, or validation (dpi) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
             };
             /** @description details.code run_not_found */
             404: {
@@ -2162,7 +2394,7 @@ export interface operations {
                     "application/json": components["schemas"]["StartedRunDto"];
                 };
             };
-            /** @description details.code one of unknown_serial, pattern_mismatch, wrong_lot, already_passed, retest_limit, station_blocked, station_busy, unit_not_testable */
+            /** @description details.code one of unknown_serial, not_a_serial, pattern_mismatch, wrong_lot, already_passed, retest_limit, station_blocked, station_busy, unit_busy, unit_not_testable, override_not_allowed, station_not_found, run_not_found, run_finished (see runs/run-refusal.ts for the HTTP status of each) */
             409: {
                 headers: {
                     [name: string]: unknown;
@@ -2194,14 +2426,14 @@ export interface operations {
                     "application/json": components["schemas"]["ScanResultDto"];
                 };
             };
-            /** @description details.code one of unknown_serial, pattern_mismatch, wrong_lot, already_passed, retest_limit, station_blocked, station_busy, unit_not_testable */
+            /** @description details.code one of unknown_serial, not_a_serial, pattern_mismatch, wrong_lot, already_passed, retest_limit, station_blocked, station_busy, unit_busy, unit_not_testable, override_not_allowed, station_not_found, run_not_found, run_finished (see runs/run-refusal.ts for the HTTP status of each) */
             409: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content?: never;
             };
-            /** @description details.code pattern_mismatch */
+            /** @description details.code pattern_mismatch or not_a_serial */
             422: {
                 headers: {
                     [name: string]: unknown;
@@ -2210,7 +2442,7 @@ export interface operations {
             };
         };
     };
-    FloorController_shiftSummary: {
+    ShiftController_shiftSummary: {
         parameters: {
             query?: never;
             header?: never;
@@ -2347,6 +2579,52 @@ export interface operations {
             };
         };
     };
+    RepairController_sendToRepair: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                serial: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["SendToRepairDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["UnitDto"];
+                };
+            };
+            /** @description validation: details lists the fields (note) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description details.code unknown_serial */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description details.code not_failed (with state) or unit_under_test */
+            409: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
     UsersController_list: {
         parameters: {
             query?: never;
@@ -2444,6 +2722,208 @@ export interface operations {
         };
         responses: {
             204: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    YieldController_capability: {
+        parameters: {
+            query: {
+                /** @description first day included (YYYY-MM-DD, plant local time) */
+                from?: string;
+                lotId?: number;
+                productId?: number;
+                /** @description quantity key within the step */
+                quantity: string;
+                stationId?: number;
+                /** @description step key */
+                step: string;
+                /** @description 1 = individuals; 2..10 consecutive units per subgroup */
+                subgroupSize?: number;
+                /** @description last day included (YYYY-MM-DD, plant local time) */
+                to?: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    YieldController_controlChart: {
+        parameters: {
+            query: {
+                /** @description first day included (YYYY-MM-DD, plant local time) */
+                from?: string;
+                lotId?: number;
+                /** @description the latest this many values (units) are charted */
+                points?: number;
+                productId?: number;
+                /** @description quantity key within the step */
+                quantity: string;
+                rules?: "western-electric" | "nelson";
+                stationId?: number;
+                /** @description step key */
+                step: string;
+                /** @description 1 = individuals; 2..10 consecutive units per subgroup */
+                subgroupSize?: number;
+                /** @description last day included (YYYY-MM-DD, plant local time) */
+                to?: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    YieldController_figures: {
+        parameters: {
+            query?: {
+                by?: "lot" | "product" | "station" | "fixture" | "operator" | "day" | "shift";
+                /** @description first day included (YYYY-MM-DD, plant local time) */
+                from?: string;
+                lotId?: number;
+                productId?: number;
+                stationId?: number;
+                /** @description last day included (YYYY-MM-DD, plant local time) */
+                to?: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description YieldFiguresView */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    YieldController_exportCsv: {
+        parameters: {
+            query?: {
+                /** @description first day included (YYYY-MM-DD, plant local time) */
+                from?: string;
+                lotId?: number;
+                /** @description failing: only measurements judged fail or guard_fail */
+                only?: "all" | "failing";
+                productId?: number;
+                /** @description only this quantity (key within the step) */
+                quantity?: string;
+                stationId?: number;
+                /** @description only this step (key) */
+                step?: string;
+                /** @description last day included (YYYY-MM-DD, plant local time) */
+                to?: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    YieldController_pareto: {
+        parameters: {
+            query?: {
+                by?: "step" | "quantity";
+                /** @description first day included (YYYY-MM-DD, plant local time) */
+                from?: string;
+                lotId?: number;
+                productId?: number;
+                stationId?: number;
+                /** @description last day included (YYYY-MM-DD, plant local time) */
+                to?: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    YieldController_paretoUnits: {
+        parameters: {
+            query: {
+                by?: "step" | "quantity";
+                /** @description first day included (YYYY-MM-DD, plant local time) */
+                from?: string;
+                /** @description the bar: a step key (by=step) or "stepKey/quantity" (by=quantity) */
+                key: string;
+                lotId?: number;
+                productId?: number;
+                stationId?: number;
+                /** @description last day included (YYYY-MM-DD, plant local time) */
+                to?: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    YieldController_quantities: {
+        parameters: {
+            query?: {
+                /** @description first day included (YYYY-MM-DD, plant local time) */
+                from?: string;
+                lotId?: number;
+                productId?: number;
+                stationId?: number;
+                /** @description last day included (YYYY-MM-DD, plant local time) */
+                to?: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
                 headers: {
                     [name: string]: unknown;
                 };

@@ -13,6 +13,7 @@ export function makeRun(overrides: Partial<RunView> = {}): RunView {
     lotCode: 'LB-2648-01',
     productId: 1,
     partNumber: 'OB-BK0503',
+    endReason: null,
     planVersionId: 5,
     planCode: 'TP-BK0503',
     planVersion: 2,

@@ -9,6 +9,8 @@ const item = (over: Partial<RepairQueueItem>): RepairQueueItem => ({
   serial: 'K5A-2648-00017',
   state: 'failed',
   testCount: 3,
+  reason: 'no_attempts_left',
+  sentToRepairAt: null,
   lot: { id: 2, code: 'LB-2648-01', partNumber: 'OB-BK0503' },
   lastFailingRun: {
     id: 40,
