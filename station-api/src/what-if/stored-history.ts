@@ -30,7 +30,7 @@ async function insertRows(em: EntityManager, table: string, columns: string[], r
   for (let i = 0; i < rows.length; i += ROWS_PER_INSERT) {
     const chunk = rows.slice(i, i + ROWS_PER_INSERT);
     const one = `(${columns.map(() => '?').join(', ')})`;
-    await conn.execute(`insert into ${table} (${columns.join(', ')}) values ${chunk.map(() => one).join(', ')}`, chunk.flat());
+    await conn.execute(`insert into ${table} (${columns.join(', ')}) values ${chunk.map(() => one).join(', ')}`, chunk.flat(), 'run', em.getTransactionContext());
   }
 }
 
@@ -42,17 +42,17 @@ export async function insertHistory(em: EntityManager, ctx: HistoryContext, runs
     const known = new Map<string, number>();
     for (let i = 0; i < serials.length; i += 900) {
       const part = serials.slice(i, i + 900);
-      const rows = await tx.getConnection().execute<{ id: number; serial: string }[]>(`select id, serial from units where serial in (${part.map(() => '?').join(',')})`, part);
+      const rows = await tx.getConnection().execute<{ id: number; serial: string }[]>(`select id, serial from units where serial in (${part.map(() => '?').join(',')})`, part, 'all', tx.getTransactionContext());
       for (const r of rows) known.set(r.serial, r.id);
     }
     const fresh = serials.filter((s) => !known.has(s));
     await insertRows(tx, 'units', ['created_at', 'updated_at', 'serial', 'lot_id', 'product_id', 'state', 'test_count', 'test_count_at_return'], fresh.map((s) => [now, now, s, ctx.lotId, ctx.productId, 'untested', 0, 0]));
     for (let i = 0; i < fresh.length; i += 900) {
       const part = fresh.slice(i, i + 900);
-      const rows = await tx.getConnection().execute<{ id: number; serial: string }[]>(`select id, serial from units where serial in (${part.map(() => '?').join(',')})`, part);
+      const rows = await tx.getConnection().execute<{ id: number; serial: string }[]>(`select id, serial from units where serial in (${part.map(() => '?').join(',')})`, part, 'all', tx.getTransactionContext());
       for (const r of rows) known.set(r.serial, r.id);
     }
-    const first = await tx.getConnection().execute<{ next: number | null }[]>('select max(id) as next from test_runs');
+    const first = await tx.getConnection().execute<{ next: number | null }[]>('select max(id) as next from test_runs', [], 'all', tx.getTransactionContext());
     let nextId = (first[0]?.next ?? 0) + 1;
     const attempts = new Map<string, number>();
     const runRows: unknown[][] = [];
