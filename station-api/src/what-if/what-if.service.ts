@@ -26,7 +26,7 @@ export class WhatIfService {
   }
 
   /** One first judged run per unit of the product, in the scope asked for. */
-  async unitRuns(productId: number, dto: WhatIfRequestDto): Promise<{ runs: UnitRun[]; scopeText: string }> {
+  async unitRuns(productId: number, dto: WhatIfRequestDto): Promise<{ runs: UnitRun[]; scopeText: string; sql: string; params: unknown[] }> {
     const conn = this.em.getConnection();
     const where: string[] = [];
     const params: unknown[] = [productId];
@@ -65,6 +65,8 @@ export class WhatIfService {
     const rows = await conn.execute<{ run_id: number; unit_id: number; serial: string; verdict: 'pass' | 'fail'; started_at: number | string }[]>(sql, params);
     return {
       scopeText,
+      sql,
+      params,
       runs: rows.map((r) => ({ runId: r.run_id, unitId: r.unit_id, serial: r.serial, verdict: r.verdict, startedAt: new Date(Number(r.started_at)).toISOString() })),
     };
   }
