@@ -132,6 +132,12 @@ describe('what-if before release', () => {
     expect(await snapshot()).toEqual(before);
   });
 
+  it('a run view names the plan version and checksum it used', async () => {
+    const plan = (await http().get('/api/plans').set(as(operator)).expect(200)).body.find((p: { code: string }) => p.code === 'EOL-BK0503');
+    const run = await http().get(`/api/runs/${runIds[0]}`).set(as(engineer)).expect(200);
+    expect(run.body).toMatchObject({ planVersionId: plan.releasedVersion.id, planChecksum: plan.releasedVersion.checksum });
+  });
+
   it('is for drafts only', async () => {
     const plan = (await http().get('/api/plans').set(as(operator)).expect(200)).body.find((p: { code: string }) => p.code === 'EOL-BK0503');
     const res = await http().post(`/api/plan-versions/${plan.releasedVersion.id}/what-if`).set(as(engineer)).send({ scope: 'lot', lotId }).expect(400);
