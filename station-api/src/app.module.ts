@@ -21,6 +21,7 @@ import { RepairModule } from './repair/repair.module';
 import { ShiftModule } from './shift/shift.module';
 import { SimulationModule } from './simulation/simulation.module';
 import { YieldModule } from './yield/yield.module';
+import { WhatIfModule } from './what-if/what-if.module';
 
 function staticUi(): DynamicModule[] {
   const dist = loadEnv().UI_DIST;
@@ -45,6 +46,7 @@ function staticUi(): DynamicModule[] {
     BoardModule,
     RepairModule,
     YieldModule,
+    WhatIfModule,
     ...staticUi(),
   ],
 })

@@ -12,6 +12,7 @@ import { createTestApp, login, TestApp } from './create-test-app';
 describe('plans API', () => {
   let t: TestApp;
   let engineer: string;
+  let engineer2: string;
   let operator: string;
   const http = () => request(t.app.getHttpServer());
   const as = (token: string) => ({ Authorization: `Bearer ${token}` });
@@ -19,6 +20,7 @@ describe('plans API', () => {
   beforeAll(async () => {
     t = await createTestApp();
     engineer = await login(t.app, 'engineer');
+    engineer2 = await login(t.app, 'engineer2');
     operator = await login(t.app, 'operator');
   });
   afterAll(async () => t?.close());
@@ -79,12 +81,14 @@ describe('plans API', () => {
     const product = await t.orm.em.fork().findOneOrFail(Product, { partNumber: 'OB-BK3305' });
     expect((await service.releasedVersionForProduct(product.id))?.version).toBe(1);
 
+    await http().post(`/api/plan-versions/${draft.body.id}/submit`).set(as(engineer)).send({ reason: 'Ripple limit 20 mV after the capacitor change' }).expect(200);
+    // a second engineer releases it (the author may not)
     const released = await http()
       .post(`/api/plan-versions/${draft.body.id}/release`)
-      .set(as(engineer))
+      .set(as(engineer2))
       .send({ reason: 'Approved by the line B review' })
       .expect(200);
-    expect(released.body).toMatchObject({ version: 2, state: 'released', releasedBy: { username: 'engineer' } });
+    expect(released.body).toMatchObject({ version: 2, state: 'released', releasedBy: { username: 'engineer2' }, submittedBy: { username: 'engineer' } });
 
     const plan = await http().get(`/api/plans/${summary.id}`).set(as(operator)).expect(200);
     expect(plan.body.versions.map((v: { version: number; state: string }) => [v.version, v.state])).toEqual([
@@ -136,9 +140,9 @@ describe('plans API', () => {
     const id = summary.releasedVersion.id;
     const res = await http().post(`/api/plan-versions/${id}/release`).set(as(engineer)).send({ reason: 'Again' }).expect(409);
     expect(res.body).toMatchObject({ details: { code: 'not_draft', state: 'released' } });
-    // no route edits a version
-    await http().patch(`/api/plan-versions/${id}`).set(as(engineer)).send({ maxAttempts: 5 }).expect(404);
-    await http().put(`/api/plan-versions/${id}`).set(as(engineer)).send({ maxAttempts: 5 }).expect(404);
+    // every route that changes a version refuses a released one
+    await http().patch(`/api/plan-versions/${id}`).set(as(engineer)).send({ maxAttempts: 5 }).expect(409);
+    await http().put(`/api/plan-versions/${id}`).set(as(engineer)).send({ maxAttempts: 5 }).expect(409);
     // and the entity refuses a change made in code
     const em = t.orm.em.fork();
     const v = await em.findOneOrFail(PlanVersion, id);

@@ -24,7 +24,7 @@ describe('user administration', () => {
 
   it('lists the demo users without any hash', async () => {
     const res = await asAdmin(http().get('/api/users')).expect(200);
-    expect(res.body.map((u: { username: string }) => u.username).sort()).toEqual(['admin', 'engineer', 'operator', 'quality']);
+    expect(res.body.map((u: { username: string }) => u.username).sort()).toEqual(['admin', 'engineer', 'engineer2', 'operator', 'quality']);
     noSecrets(res.body);
   });
 

@@ -53,6 +53,34 @@ export class PlanVersion extends BaseEntity {
   @Property({ nullable: true })
   releasedAt?: Date;
 
+  /** When the draft was put forward for release; cleared when the draft is edited again */
+  @Property({ nullable: true })
+  submittedAt?: Date;
+
+  @ManyToOne(() => User, { nullable: true })
+  submittedBy?: User;
+
+  /** What changed and why, given on submission; the approver reads it in the release form */
+  @Property({ type: 'text', nullable: true })
+  changeReason?: string;
+
+  /** A retired version is kept with its history but no station runs it and no draft is released over it */
+  @Property({ nullable: true })
+  retiredAt?: Date;
+
+  @ManyToOne(() => User, { nullable: true })
+  retiredBy?: User;
+
+  @Property({ type: 'text', nullable: true })
+  retireReason?: string;
+
+  /** Plan-file header fields with no other home, kept so an imported file exports with the same content */
+  @Property({ type: 'text', nullable: true })
+  author?: string;
+
+  @Property({ nullable: true })
+  fileRevision?: number;
+
   /**
    * A released version is never changed: once a version has left the draft state only its state may move on,
    * and only released → superseded. Checked here so that no code path (API, engine, seeder) can slip past it.
@@ -72,7 +100,7 @@ export class PlanVersion extends BaseEntity {
   }
 }
 
-/** Fields fixed once a version is released (state and the timestamps of the base entity may still move). */
+/** Fields fixed once a version is released (state, retirement and the timestamps of the base entity may still move). */
 const FROZEN_AFTER_RELEASE = new Set([
   'plan',
   'version',
@@ -85,4 +113,9 @@ const FROZEN_AFTER_RELEASE = new Set([
   'createdBy',
   'releasedBy',
   'releasedAt',
+  'submittedAt',
+  'submittedBy',
+  'changeReason',
+  'author',
+  'fileRevision',
 ]);

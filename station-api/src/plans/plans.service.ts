@@ -1,6 +1,6 @@
 import type { EntityManager as AnyEntityManager } from '@mikro-orm/core';
 import { EntityManager, RequestContext } from '@mikro-orm/sqlite';
-import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
+import { BadRequestException, Injectable, NotFoundException } from '@nestjs/common';
 import { AuditService } from '../audit/audit.service';
 import type { AuthUser } from '../common/decorators/current-user.decorator';
 import { Product } from '../products/product.entity';
@@ -12,7 +12,6 @@ import type {
   PlanTextValidationDto,
   PlanVersionDto,
   PlanVersionSummaryDto,
-  ReleasePlanVersionDto,
   UserRefDto,
 } from './dto/plan.dto';
 import { parsePlanText, stepsChecksum, validatePlanSteps, type PlanProduct } from './plan-file';
@@ -39,10 +38,24 @@ export function toPlanVersionSummaryDto(v: PlanVersion): PlanVersionSummaryDto {
     createdBy: userRef(v.createdBy),
     releasedAt: v.releasedAt ? v.releasedAt.toISOString() : null,
     releasedBy: userRef(v.releasedBy),
+    submittedAt: v.submittedAt ? v.submittedAt.toISOString() : null,
+    submittedBy: userRef(v.submittedBy),
+    changeReason: v.changeReason ?? null,
+    retiredAt: v.retiredAt ? v.retiredAt.toISOString() : null,
+    retiredBy: userRef(v.retiredBy),
+    retireReason: v.retireReason ?? null,
+    stage: versionStage(v),
   };
 }
 
-function toPlanVersionDto(v: PlanVersion): PlanVersionDto {
+/** The lifecycle stage a person reads: the stored state refined by submission and retirement. */
+export function versionStage(v: PlanVersion): PlanVersionSummaryDto['stage'] {
+  if (v.retiredAt) return 'retired';
+  if (v.state === PlanVersionState.Draft) return v.submittedAt ? 'submitted' : 'draft';
+  return v.state;
+}
+
+export function toPlanVersionDto(v: PlanVersion): PlanVersionDto {
   const p = v.plan;
   return {
     ...toPlanVersionSummaryDto(v),
@@ -52,7 +65,7 @@ function toPlanVersionDto(v: PlanVersion): PlanVersionDto {
 }
 
 function toPlanSummaryDto(p: TestPlan, versions: PlanVersion[]): PlanSummaryDto {
-  const released = versions.filter((v) => v.state === PlanVersionState.Released).sort((a, b) => b.version - a.version)[0];
+  const released = versions.filter((v) => v.state === PlanVersionState.Released && !v.retiredAt).sort((a, b) => b.version - a.version)[0];
   return {
     id: p.id,
     code: p.code,
@@ -63,12 +76,12 @@ function toPlanSummaryDto(p: TestPlan, versions: PlanVersion[]): PlanSummaryDto 
   };
 }
 
-function planProduct(p: Product): PlanProduct {
+export function planProduct(p: Product): PlanProduct {
   return { partNumber: p.partNumber, vinMinV: p.vinMinV, vinNomV: p.vinNomV, vinMaxV: p.vinMaxV, voutNomV: p.voutNomV, ioutRatedA: p.ioutRatedA };
 }
 
 /** Turns step issues into the API's validation-error shape, `details: [{field, problems}]`. */
-function stepsRefusal(issues: { path: string; message: string }[]): BadRequestException {
+export function stepsRefusal(issues: { path: string; message: string }[]): BadRequestException {
   const byField = new Map<string, string[]>();
   for (const i of issues) byField.set(i.path, [...(byField.get(i.path) ?? []), i.message]);
   const details = [...byField].map(([field, problems]) => ({ field, problems }));
@@ -94,7 +107,7 @@ export class PlansService {
 
   async get(id: number): Promise<PlanDetailDto> {
     const plan = await this.planEntity(id);
-    const versions = await this.em.find(PlanVersion, { plan }, { populate: ['createdBy', 'releasedBy'], orderBy: { version: 'desc' } });
+    const versions = await this.em.find(PlanVersion, { plan }, { populate: ['createdBy', 'releasedBy', 'submittedBy', 'retiredBy'], orderBy: { version: 'desc' } });
     return { ...toPlanSummaryDto(plan, versions), versions: versions.map(toPlanVersionSummaryDto) };
   }
 
@@ -111,7 +124,7 @@ export class PlansService {
     const target: AnyEntityManager = em ?? (RequestContext.getEntityManager() ? this.em : this.em.fork());
     return target.findOne(
       PlanVersion,
-      { plan: { product: productId }, state: PlanVersionState.Released },
+      { plan: { product: productId }, state: PlanVersionState.Released, retiredAt: null },
       { orderBy: { version: 'desc' }, populate: ['plan', 'plan.product'] },
     );
   }
@@ -156,44 +169,6 @@ export class PlansService {
     });
   }
 
-  /** Releases a draft; the plan's released version, if any, becomes superseded. */
-  async release(versionId: number, dto: ReleasePlanVersionDto, actor: AuthUser): Promise<PlanVersionDto> {
-    const version = await this.versionEntity(versionId);
-    if (version.state !== PlanVersionState.Draft) {
-      throw new ConflictException({
-        message: `Version ${version.version} of ${version.plan.code} is ${version.state}; only a draft can be released, and a released version never changes. Create a new draft instead.`,
-        details: { code: 'not_draft', state: version.state },
-      });
-    }
-    // the product's ratings may have changed since the draft was written
-    const { issues } = validatePlanSteps(version.steps, planProduct(version.plan.product));
-    if (issues.length > 0) throw stepsRefusal(issues);
-
-    return this.em.transactional(async (em) => {
-      const v = await em.findOneOrFail(PlanVersion, { id: version.id }, { populate: ['plan', 'plan.product', 'createdBy'] });
-      const previous = await em.find(PlanVersion, { plan: v.plan.id, state: PlanVersionState.Released });
-      for (const p of previous) p.state = PlanVersionState.Superseded;
-      v.state = PlanVersionState.Released;
-      v.releasedAt = new Date();
-      v.releasedBy = em.getReference(User, actor.id);
-      await this.audit.record(
-        {
-          actor: actor.id,
-          action: 'plan_version.released',
-          entityType: 'plan_version',
-          entityId: v.id,
-          reason: dto.reason,
-          before: { plan: v.plan.code, releasedVersions: previous.map((p) => p.version) },
-          after: { plan: v.plan.code, version: v.version, checksum: v.checksum, superseded: previous.map((p) => p.version) },
-        },
-        em,
-      );
-      await em.flush();
-      await em.populate(v, ['createdBy', 'releasedBy']);
-      return toPlanVersionDto(v);
-    });
-  }
-
   /** Checks the YAML text of a plan file; the product is looked up by the part number in its header. */
   async validateText(text: string): Promise<PlanTextValidationDto> {
     const products = (await this.em.find(Product, {})).map(planProduct);
@@ -207,14 +182,14 @@ export class PlansService {
     };
   }
 
-  private async planEntity(id: number): Promise<TestPlan> {
+  async planEntity(id: number): Promise<TestPlan> {
     const plan = await this.em.findOne(TestPlan, { id }, { populate: ['product'] });
     if (!plan) throw new NotFoundException({ message: `There is no test plan with id ${id}.`, details: { code: 'unknown_plan' } });
     return plan;
   }
 
-  private async versionEntity(id: number): Promise<PlanVersion> {
-    const v = await this.em.findOne(PlanVersion, { id }, { populate: ['plan', 'plan.product', 'createdBy', 'releasedBy'] });
+  async versionEntity(id: number): Promise<PlanVersion> {
+    const v = await this.em.findOne(PlanVersion, { id }, { populate: ['plan', 'plan.product', 'createdBy', 'releasedBy', 'submittedBy', 'retiredBy'] });
     if (!v) throw new NotFoundException({ message: `There is no plan version with id ${id}.`, details: { code: 'unknown_plan_version' } });
     return v;
   }

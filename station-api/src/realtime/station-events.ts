@@ -56,6 +56,8 @@ export interface RunView {
   planVersionId: number;
   planCode: string;
   planVersion: number;
+  /** SHA-256 of the plan version's steps the run used (a version never changes once released) */
+  planChecksum?: string;
   operatorId: number;
   operatorName: string;
   fixtureId: number;

@@ -14,7 +14,7 @@ export interface RunSource {
   unit: { id: number; serial: string };
   lot: { id: number; code: string };
   product: { id: number; partNumber: string };
-  planVersion: { id: number; version: number; plan: { code: string } };
+  planVersion: { id: number; version: number; checksum?: string; plan: { code: string } };
   operator: { id: number; displayName: string };
   /** The operator's name when the run started (shown in preference to the user's current name) */
   operatorName?: string | null;
@@ -49,6 +49,7 @@ export function toRunView(run: RunSource): RunView {
     planVersionId: run.planVersion.id,
     planCode: run.planVersion.plan.code,
     planVersion: run.planVersion.version,
+    planChecksum: run.planVersion.checksum,
     operatorId: run.operator.id,
     operatorName,
     fixtureId: run.fixture.id,

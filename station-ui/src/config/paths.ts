@@ -112,4 +112,18 @@ export const apiPaths = {
   // the repair loop: the queue and one unit's repair step (receive, return for retest, scrap)
   repairQueue: '/repair-queue',
   unitRepair: (serial: string) => `/units/${encodeURIComponent(serial)}/repair`,
+  // test plans and their versions (features/plans)
+  plans: '/plans',
+  plan: (id: number) => `/plans/${id}`,
+  planPreview: (id: number) => `/plans/${id}/preview`,
+  planImport: '/plans/import',
+  planStepKinds: '/plan-step-kinds',
+  planVersion: (id: number) => `/plan-versions/${id}`,
+  planVersionDrafts: (id: number) => `/plan-versions/${id}/drafts`,
+  planVersionSubmit: (id: number) => `/plan-versions/${id}/submit`,
+  planVersionRelease: (id: number) => `/plan-versions/${id}/release`,
+  planVersionRetire: (id: number) => `/plan-versions/${id}/retire`,
+  planVersionExport: (id: number) => `/plan-versions/${id}/export`,
+  planCompare: (from: number, to: number) => `/plan-versions/${from}/compare/${to}`,
+  planWhatIf: (id: number) => `/plan-versions/${id}/what-if`,
 } as const;

@@ -39,6 +39,9 @@ export function refuseControlCharactersInUrl(req: Request, res: Response, next: 
   next();
 }
 
+/** The routes that take a file upload (multipart/form-data) instead of JSON: method and path as sent. */
+const MULTIPART_ROUTES = new Set(['POST /api/plans/import']);
+
 /**
  * Bodies sent to the API must be JSON. A text/plain or XML PATCH used to answer 200 and change nothing;
  * form-encoded bodies were accepted. Now each is refused with 415 before a route sees it.
@@ -46,6 +49,8 @@ export function refuseControlCharactersInUrl(req: Request, res: Response, next: 
 export function requireJsonBodies(req: Request, res: Response, next: NextFunction): void {
   if (!isApi(req) || !hasBody(req)) return next();
   const type = (req.headers['content-type'] ?? '').toLowerCase();
+  // the file uploads (a plan file) take multipart/form-data, and only those routes
+  if (MULTIPART_ROUTES.has(`${req.method} ${req.path}`) && /^multipart\/form-data\s*;/.test(type)) return next();
   if (!/^application\/json\s*(;|$)/.test(type)) {
     return send(res, 415, `The API accepts only JSON bodies: send "Content-Type: application/json" (this request sent ${type ? `"${type}"` : 'no content type'}).`, { code: 'unsupported_media_type' });
   }

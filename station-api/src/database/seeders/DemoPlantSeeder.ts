@@ -14,6 +14,8 @@ import { Role, User } from '../../users/user.entity';
 export const DEMO_USERS: { username: string; password: string; displayName: string; roles: Role[] }[] = [
   { username: 'operator', password: 'operator-demo', displayName: 'Line B operator', roles: ['operator'] },
   { username: 'engineer', password: 'engineer-demo', displayName: 'Test engineer', roles: ['engineer'] },
+  // a second engineer: plan versions need one engineer to write a change and another to release it
+  { username: 'engineer2', password: 'engineer2-demo', displayName: 'Second test engineer', roles: ['engineer'] },
   { username: 'quality', password: 'quality-demo', displayName: 'Quality engineer', roles: ['quality'] },
   { username: 'admin', password: 'admin-demo', displayName: 'Administrator', roles: ['admin'] },
 ];

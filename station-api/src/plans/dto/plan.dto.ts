@@ -30,6 +30,14 @@ export class PlanVersionSummaryDto {
   @ApiProperty({ nullable: true, type: UserRefDto }) createdBy!: UserRefDto | null;
   @ApiProperty({ nullable: true, type: String }) releasedAt!: string | null;
   @ApiProperty({ nullable: true, type: UserRefDto }) releasedBy!: UserRefDto | null;
+  @ApiProperty({ nullable: true, type: String, description: 'when the draft was put forward for release' }) submittedAt!: string | null;
+  @ApiProperty({ nullable: true, type: UserRefDto }) submittedBy!: UserRefDto | null;
+  @ApiProperty({ nullable: true, type: String, description: 'what changed and why, given on submission' }) changeReason!: string | null;
+  @ApiProperty({ nullable: true, type: String, description: 'set when the version was retired (kept with its history)' }) retiredAt!: string | null;
+  @ApiProperty({ nullable: true, type: UserRefDto }) retiredBy!: UserRefDto | null;
+  @ApiProperty({ nullable: true, type: String }) retireReason!: string | null;
+  @ApiProperty({ description: 'draft, submitted (a draft awaiting a second engineer), released, superseded or retired' })
+  stage!: 'draft' | 'submitted' | 'released' | 'superseded' | 'retired';
 }
 
 export class PlanVersionDto extends PlanVersionSummaryDto {

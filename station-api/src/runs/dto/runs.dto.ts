@@ -75,6 +75,7 @@ export class RunDto implements RunView {
   @ApiProperty() planVersionId!: number;
   @ApiProperty() planCode!: string;
   @ApiProperty() planVersion!: number;
+  @ApiPropertyOptional({ description: 'SHA-256 of the steps of the plan version the run used' }) planChecksum?: string;
   @ApiProperty() operatorId!: number;
   @ApiProperty() operatorName!: string;
   @ApiProperty() fixtureId!: number;

@@ -1,5 +1,5 @@
-import { PlaceholderPage } from '@/components/layout/placeholder-page';
+import { PlansScreen } from '@/features/plans/components/plans-screen';
 
 export default function PlansRoute() {
-  return <PlaceholderPage title="Test plans" purpose="Released plan versions per product: steps, limits and guard bands." />;
+  return <PlansScreen />;
 }
