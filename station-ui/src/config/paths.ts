@@ -101,8 +101,6 @@ export const apiPaths = {
   run: (id: number) => `/runs/${id}`,
   runAbort: (id: number) => `/runs/${id}/abort`,
   runRepairTag: (id: number) => `/runs/${id}/repair-tag.pdf`,
-  /** one plan version (the station reads how many attempts it allows) */
-  planVersion: (id: number) => `/plan-versions/${id}`,
   /** the operator sends a failed unit to repair although it has attempts left */
   unitSendToRepair: (serial: string) => `/units/${encodeURIComponent(serial)}/send-to-repair`,
   // the runs list (filters: stationId, lotId, serial, verdict, from, to, limit, offset) and its filter choices
@@ -118,6 +116,7 @@ export const apiPaths = {
   planPreview: (id: number) => `/plans/${id}/preview`,
   planImport: '/plans/import',
   planStepKinds: '/plan-step-kinds',
+  /** one plan version (the editor; the station reads how many attempts it allows) */
   planVersion: (id: number) => `/plan-versions/${id}`,
   planVersionDrafts: (id: number) => `/plan-versions/${id}/drafts`,
   planVersionSubmit: (id: number) => `/plan-versions/${id}/submit`,

@@ -199,6 +199,40 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/plan-step-kinds": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** The step-kind registry: parameters with units and bounds, quantities with units and physical ranges */
+        get: operations["PlansController_stepKinds"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/plan-versions/{from}/compare/{to}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Steps added, removed, reordered and each changed parameter or limit, from one version to another */
+        get: operations["PlansController_compare"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/plan-versions/{id}": {
         parameters: {
             query?: never;
@@ -208,6 +242,43 @@ export interface paths {
         };
         /** One plan version with its steps */
         get: operations["PlansController_getVersion"];
+        /** Same as PATCH: edit a draft (409 for any other version) */
+        put: operations["PlansController_replace"];
+        post?: never;
+        /** Discard a draft (409 for any other version); body { reason } */
+        delete: operations["PlansController_discard"];
+        options?: never;
+        head?: never;
+        /** Edit a draft (409 for any other version); an edit withdraws a submission */
+        patch: operations["PlansController_update"];
+        trace?: never;
+    };
+    "/api/plan-versions/{id}/drafts": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /** Start a new draft from this version */
+        post: operations["PlansController_draftFrom"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/plan-versions/{id}/export": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** The version as a plan file (YAML, docs/test-plan-format.md) */
+        get: operations["PlansController_exportFile"];
         put?: never;
         post?: never;
         delete?: never;
@@ -225,8 +296,59 @@ export interface paths {
         };
         get?: never;
         put?: never;
-        /** Release a draft; the previously released version becomes superseded */
+        /** Release a submitted draft (a second engineer; 403 for the author); the released version becomes superseded */
         post: operations["PlansController_release"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/plan-versions/{id}/retire": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /** Retire a released or superseded version; it is kept with its history */
+        post: operations["PlansController_retire"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/plan-versions/{id}/submit": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /** Submit a draft for release with a change reason */
+        post: operations["PlansController_submit"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/plan-versions/{id}/what-if": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /** Re-judge stored measurements against a draft's limits; writes nothing */
+        post: operations["WhatIfController_run"];
         delete?: never;
         options?: never;
         head?: never;
@@ -267,6 +389,23 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/plans/{id}/preview": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /** Check draft steps for the plan's product: every problem on its field, and the guarded limits each stated uncertainty gives */
+        post: operations["PlansController_preview"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/plans/{id}/versions": {
         parameters: {
             query?: never;
@@ -278,6 +417,23 @@ export interface paths {
         put?: never;
         /** Create a draft version (checked like a plan file) */
         post: operations["PlansController_createDraft"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/plans/import": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /** Import a plan file (multipart field "file") as a new draft; a file with any problem changes nothing */
+        post: operations["PlansController_importFile"];
         delete?: never;
         options?: never;
         head?: never;
@@ -835,6 +991,10 @@ export interface components {
              */
             label: string;
         };
+        ChangeReasonDto: {
+            /** @description what changed and why, in plain words */
+            reason: string;
+        };
         ContactsReplacedDto: {
             /** @example Pogo pins replaced after 48 000 cycles */
             reason: string;
@@ -954,6 +1114,15 @@ export interface components {
             /** @description expanded uncertainty (k = 2) of voltage readings, volts */
             voltageUncertaintyV: number;
         };
+        IntervalDto: {
+            confidence: number;
+            estimate: number | null;
+            lower: number;
+            method: string;
+            n: number;
+            upper: number;
+            x: number;
+        };
         LimitDto: {
             high?: number;
             key: string;
@@ -1037,6 +1206,18 @@ export interface components {
             /** @enum {string} */
             verdict: "pass" | "fail" | "guard_fail";
         };
+        PlanComparisonDto: {
+            added: components["schemas"]["StepRefDto"][];
+            changed: components["schemas"]["StepChangeDto"][];
+            fromVersion: number;
+            fromVersionId: number;
+            identical: boolean;
+            removed: components["schemas"]["StepRefDto"][];
+            reordered: components["schemas"]["ReorderDto"][];
+            settings: components["schemas"]["ValueChangeDto"][];
+            toVersion: number;
+            toVersionId: number;
+        };
         PlanDetailDto: {
             /** @example EOL-BK0503 */
             code: string;
@@ -1080,6 +1261,8 @@ export interface components {
             valid: boolean;
         };
         PlanVersionDto: {
+            /** @description what changed and why, given on submission */
+            changeReason: string | null;
             /** @description SHA-256 (hex) of the canonical JSON of the steps */
             checksum: string;
             createdAt: string;
@@ -1093,18 +1276,29 @@ export interface components {
             reason: string;
             releasedAt: string | null;
             releasedBy: components["schemas"]["UserRefDto"] | null;
+            /** @description set when the version was retired (kept with its history) */
+            retiredAt: string | null;
+            retiredBy: components["schemas"]["UserRefDto"] | null;
+            retireReason: string | null;
             /** @description plan file it was seeded from */
             sourceFile: string | null;
+            /** @description draft, submitted (a draft awaiting a second engineer), released, superseded or retired */
+            stage: string;
             /** @enum {string} */
             state: "draft" | "released" | "superseded";
             stepCount: number;
             /** @description steps as in src/plans/plan-definition.ts (limits normalised to low/high) */
             steps: Record<string, unknown>[];
             stopAtFirstFailure: boolean;
+            /** @description when the draft was put forward for release */
+            submittedAt: string | null;
+            submittedBy: components["schemas"]["UserRefDto"] | null;
             /** @description numbered from 1 within the plan */
             version: number;
         };
         PlanVersionSummaryDto: {
+            /** @description what changed and why, given on submission */
+            changeReason: string | null;
             /** @description SHA-256 (hex) of the canonical JSON of the steps */
             checksum: string;
             createdAt: string;
@@ -1116,14 +1310,27 @@ export interface components {
             reason: string;
             releasedAt: string | null;
             releasedBy: components["schemas"]["UserRefDto"] | null;
+            /** @description set when the version was retired (kept with its history) */
+            retiredAt: string | null;
+            retiredBy: components["schemas"]["UserRefDto"] | null;
+            retireReason: string | null;
             /** @description plan file it was seeded from */
             sourceFile: string | null;
+            /** @description draft, submitted (a draft awaiting a second engineer), released, superseded or retired */
+            stage: string;
             /** @enum {string} */
             state: "draft" | "released" | "superseded";
             stepCount: number;
             stopAtFirstFailure: boolean;
+            /** @description when the draft was put forward for release */
+            submittedAt: string | null;
+            submittedBy: components["schemas"]["UserRefDto"] | null;
             /** @description numbered from 1 within the plan */
             version: number;
+        };
+        PreviewStepsDto: {
+            /** @description draft steps as the editor holds them */
+            steps: Record<string, unknown>[];
         };
         ProductDto: {
             active: boolean;
@@ -1163,9 +1370,11 @@ export interface components {
             /** @description expanded uncertainty (k = 2) from the certificate, volts */
             voltageUncertaintyV: number;
         };
-        ReleasePlanVersionDto: {
-            /** @description why this version is released now */
-            reason: string;
+        ReorderDto: {
+            from: number;
+            key: string;
+            name: string;
+            to: number;
         };
         RepairActionDto: {
             /**
@@ -1264,6 +1473,8 @@ export interface components {
             overrideByName: string | null;
             overrideReason: string | null;
             partNumber: string;
+            /** @description SHA-256 of the steps of the plan version the run used */
+            planChecksum?: string;
             planCode: string;
             planVersion: number;
             planVersionId: number;
@@ -1302,6 +1513,8 @@ export interface components {
             overrideByName: string | null;
             overrideReason: string | null;
             partNumber: string;
+            /** @description SHA-256 of the steps of the plan version the run used */
+            planChecksum?: string;
             planCode: string;
             planVersion: number;
             planVersionId: number;
@@ -1451,11 +1664,24 @@ export interface components {
             partNumber: string;
             state: string;
         };
+        StepChangeDto: {
+            changes: components["schemas"]["ValueChangeDto"][];
+            key: string;
+            kind: string;
+            name: string;
+        };
         StepOutlineDto: {
             key: string;
             kind: string;
             limits: components["schemas"]["LimitDto"][];
             name: string;
+        };
+        StepRefDto: {
+            key: string;
+            kind: string;
+            name: string;
+            /** @description 1-based position in its version */
+            position: number;
         };
         UnitCountsDto: {
             failed: number;
@@ -1497,6 +1723,14 @@ export interface components {
             /** @enum {string} */
             state: "untested" | "passed" | "failed" | "in_repair" | "scrapped";
             testCount: number;
+        };
+        UpdateDraftDto: {
+            maxAttempts?: number;
+            /** @description why the draft exists (kept as the version reason) */
+            reason?: string;
+            /** @description steps in the plan-definition shape (replaces all steps) */
+            steps?: Record<string, unknown>[];
+            stopAtFirstFailure?: boolean;
         };
         UpdateFixtureDto: {
             /** @description false takes the fixture out of service */
@@ -1551,6 +1785,46 @@ export interface components {
         ValidatePlanTextDto: {
             /** @description the YAML text of a plan file */
             text: string;
+        };
+        ValueChangeDto: {
+            after: Record<string, unknown> | null;
+            before: Record<string, unknown> | null;
+            /** @example limits[voutV@1.5].high */
+            field: string;
+        };
+        WhatIfRequestDto: {
+            /** @description scope dates: first test on or after (ISO 8601) */
+            from?: string;
+            /** @description scope lot: the lot id */
+            lotId?: number;
+            /**
+             * @description which stored units to re-judge
+             * @enum {string}
+             */
+            scope: "last_units" | "lot" | "dates";
+            /** @description scope dates: first test on or before (ISO 8601) */
+            to?: string;
+            /** @description scope last_units: how many of the most recently tested units */
+            units?: number;
+        };
+        WhatIfResultDto: {
+            /** @description units changing verdict, each with its run */
+            affected: Record<string, unknown>[];
+            currentFpy: components["schemas"]["IntervalDto"];
+            elapsedMs: number;
+            failToPass: number;
+            measurementsJudged: number;
+            passToFail: number;
+            perLimit: Record<string, unknown>[];
+            perStep: Record<string, unknown>[];
+            planVersionId: number;
+            predictedFpy: components["schemas"]["IntervalDto"];
+            /** @description the scope in words */
+            scopeText: string;
+            unitsInScope: number;
+            /** @description units whose stored run stopped before limits others were measured on */
+            unknown: number;
+            unmeasuredLimits: Record<string, unknown>[];
         };
     };
     responses: never;
@@ -1888,6 +2162,45 @@ export interface operations {
             };
         };
     };
+    PlansController_stepKinds: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    PlansController_compare: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                from: number;
+                to: number;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["PlanComparisonDto"];
+                };
+            };
+        };
+    };
     PlansController_getVersion: {
         parameters: {
             query?: never;
@@ -1909,6 +2222,123 @@ export interface operations {
             };
         };
     };
+    PlansController_replace: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["UpdateDraftDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["PlanVersionDto"];
+                };
+            };
+        };
+    };
+    PlansController_discard: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["ChangeReasonDto"];
+            };
+        };
+        responses: {
+            204: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    PlansController_update: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["UpdateDraftDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["PlanVersionDto"];
+                };
+            };
+        };
+    };
+    PlansController_draftFrom: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["ChangeReasonDto"];
+            };
+        };
+        responses: {
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["PlanVersionDto"];
+                };
+            };
+        };
+    };
+    PlansController_exportFile: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
     PlansController_release: {
         parameters: {
             query?: never;
@@ -1920,7 +2350,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["ReleasePlanVersionDto"];
+                "application/json": components["schemas"]["ChangeReasonDto"];
             };
         };
         responses: {
@@ -1930,6 +2360,81 @@ export interface operations {
                 };
                 content: {
                     "application/json": components["schemas"]["PlanVersionDto"];
+                };
+            };
+        };
+    };
+    PlansController_retire: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["ChangeReasonDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["PlanVersionDto"];
+                };
+            };
+        };
+    };
+    PlansController_submit: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["ChangeReasonDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["PlanVersionDto"];
+                };
+            };
+        };
+    };
+    WhatIfController_run: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["WhatIfRequestDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["WhatIfResultDto"];
                 };
             };
         };
@@ -1974,6 +2479,29 @@ export interface operations {
             };
         };
     };
+    PlansController_preview: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["PreviewStepsDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
     PlansController_createDraft: {
         parameters: {
             query?: never;
@@ -1986,6 +2514,32 @@ export interface operations {
         requestBody: {
             content: {
                 "application/json": components["schemas"]["CreatePlanVersionDto"];
+            };
+        };
+        responses: {
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["PlanVersionDto"];
+                };
+            };
+        };
+    };
+    PlansController_importFile: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "multipart/form-data": {
+                    /** Format: binary */
+                    file?: string;
+                };
             };
         };
         responses: {
