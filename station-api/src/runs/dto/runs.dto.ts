@@ -44,7 +44,7 @@ export const DECISION_STATEMENTS = ['pass', 'conditional_pass', 'conditional_fai
 export class RunsQueryDto {
   @ApiPropertyOptional() @IsOptional() @Type(() => Number) @IsInt() @Min(1) stationId?: number;
   @ApiPropertyOptional() @IsOptional() @Type(() => Number) @IsInt() @Min(1) lotId?: number;
-  @ApiPropertyOptional({ description: 'exact serial' }) @IsOptional() @Transform(trim) @IsString() @MaxLength(64) serial?: string;
+  @ApiPropertyOptional({ description: 'any part of the serial, any case (e.g. "00017" or "k5a-2648")' }) @IsOptional() @Transform(trim) @IsString() @MaxLength(64) serial?: string;
   @ApiPropertyOptional({ enum: RUN_VERDICTS }) @IsOptional() @IsIn(RUN_VERDICTS) verdict?: (typeof RUN_VERDICTS)[number];
   @ApiPropertyOptional({ description: 'runs started at or after (ISO 8601)' }) @IsOptional() @IsISO8601() from?: string;
   @ApiPropertyOptional({ description: 'runs started before (ISO 8601)' }) @IsOptional() @IsISO8601() to?: string;
