@@ -18,6 +18,7 @@ import { RunsModule } from './runs/runs.module';
 import { PlansModule } from './plans/plans.module';
 import { FloorModule } from './floor/floor.module';
 import { RepairModule } from './repair/repair.module';
+import { DatabaseMaintenanceModule } from './database/maintenance/database-maintenance.module';
 
 function staticUi(): DynamicModule[] {
   const dist = loadEnv().UI_DIST;
@@ -39,6 +40,7 @@ function staticUi(): DynamicModule[] {
     PlansModule,
     FloorModule,
     RepairModule,
+    DatabaseMaintenanceModule,
     ...staticUi(),
   ],
 })

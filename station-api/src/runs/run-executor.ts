@@ -183,7 +183,9 @@ export class RunExecutor {
     try {
       return await this.store.storeStep(runId, rows);
     } catch (err) {
-      throw new StoreFailed((err as Error).message);
+      // the driver's message repeats the whole statement; the cause is after its last " - "
+      const message = (err as Error).message;
+      throw new StoreFailed(message.includes(' - ') ? message.slice(message.lastIndexOf(' - ') + 3) : message);
     }
   }
 
