@@ -1,3 +1,4 @@
+import type { AbstractSqlConnection } from '@mikro-orm/knex';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { MeasurementView, StationEventMap } from '../src/realtime/station-events';
 import { createTestApp, login, TestApp } from './create-test-app';
@@ -67,7 +68,7 @@ describe('run store and lean run reads', () => {
 
   it('lists runs without ever reading a password hash, and counts them without joins', async () => {
     const seen: string[] = [];
-    const knex = t.orm.em.getConnection().getKnex();
+    const knex = (t.orm.em.getConnection() as unknown as AbstractSqlConnection).getKnex();
     const listen = (q: { sql: string }) => seen.push(q.sql);
     knex.on('query', listen);
     try {
