@@ -1,5 +1,5 @@
-import type { RunView } from '../realtime/station-events';
-import { toRunView } from './run-views';
+import type { MeasurementView, RunView } from '../realtime/station-events';
+import { toMeasurementView, toRunView } from './run-views';
 
 /*
  * The run list and one run, read with hand-written SQL: only the columns a RunView shows, one row per run,
@@ -94,4 +94,38 @@ export function rowToRunView(row: Record<string, unknown>): RunView {
     overrideReason: s('override_reason'),
     overrideBy: row.override_by_id === null || row.override_by_id === undefined ? null : { id: n('override_by_id'), displayName: String(row.override_by_display_name) },
   });
+}
+
+/** The columns of a MeasurementView. */
+export const MEASUREMENT_VIEW_SELECT =
+  'select id, step_index, step_key, step_name, quantity, name, value, unit, low_limit, high_limit, guarded_low, guarded_high, ' +
+  'uncertainty, rule, verdict, decision, raw, started_at, measured_at from measurements';
+
+/** One row of {@link MEASUREMENT_VIEW_SELECT} as the measurement view (raw JSON parsed, dates from epoch ms). */
+export function rowToMeasurementView(row: Record<string, unknown>, runId: number): MeasurementView {
+  const num = (v: unknown) => (v === null || v === undefined ? null : Number(v));
+  return toMeasurementView(
+    {
+      id: Number(row.id),
+      stepIndex: Number(row.step_index),
+      stepKey: String(row.step_key),
+      stepName: String(row.step_name),
+      quantity: String(row.quantity),
+      name: String(row.name),
+      value: num(row.value),
+      unit: String(row.unit),
+      lowLimit: num(row.low_limit),
+      highLimit: num(row.high_limit),
+      guardedLow: num(row.guarded_low),
+      guardedHigh: num(row.guarded_high),
+      uncertainty: Number(row.uncertainty),
+      rule: String(row.rule),
+      verdict: String(row.verdict),
+      decision: row.decision === null || row.decision === undefined ? null : String(row.decision),
+      raw: typeof row.raw === 'string' ? (JSON.parse(row.raw) as Record<string, unknown>) : ((row.raw as Record<string, unknown> | null) ?? null),
+      startedAt: toDate(row.started_at)!,
+      measuredAt: toDate(row.measured_at)!,
+    },
+    runId,
+  );
 }

@@ -1,11 +1,9 @@
 import { EntityManager } from '@mikro-orm/sqlite';
 import { Injectable } from '@nestjs/common';
 import type { RunDetailDto, RunListDto, RunsQueryDto } from './dto/runs.dto';
-import { Measurement } from './measurement.entity';
 import type { PlanStep } from '../plans/plan-definition';
 import { RunRefusal } from './run-refusal';
-import { RUN_VIEW_SELECT, rowToRunView, runFilterSql } from './run-queries';
-import { toMeasurementView } from './run-views';
+import { MEASUREMENT_VIEW_SELECT, RUN_VIEW_SELECT, rowToMeasurementView, rowToRunView, runFilterSql } from './run-queries';
 
 /** Read side of runs: lists with filters and one run with every measurement. */
 @Injectable()
@@ -32,11 +30,11 @@ export class RunsService {
       [id],
     );
     if (!row) throw new RunRefusal('run_not_found', `There is no run with id ${id}.`);
-    const measurements = await this.em.fork().find(Measurement, { run: id }, { orderBy: { stepIndex: 'asc', id: 'asc' } });
+    const measurements = await conn.execute<Record<string, unknown>[]>(`${MEASUREMENT_VIEW_SELECT} where run_id = ? order by step_index, id`, [id]);
     const steps = (typeof row.plan_steps === 'string' ? JSON.parse(row.plan_steps) : row.plan_steps) as PlanStep[];
     return {
       ...rowToRunView(row),
-      measurements: measurements.map((m) => toMeasurementView(m, id)),
+      measurements: measurements.map((m) => rowToMeasurementView(m, id)),
       steps: steps.map((s) => ({ key: s.key, name: s.name, kind: s.kind, limits: s.limits })),
     };
   }
