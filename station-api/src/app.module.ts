@@ -22,6 +22,7 @@ import { ShiftModule } from './shift/shift.module';
 import { SimulationModule } from './simulation/simulation.module';
 import { YieldModule } from './yield/yield.module';
 import { WhatIfModule } from './what-if/what-if.module';
+import { DatabaseMaintenanceModule } from './database/maintenance/database-maintenance.module';
 
 function staticUi(): DynamicModule[] {
   const dist = loadEnv().UI_DIST;
@@ -47,6 +48,7 @@ function staticUi(): DynamicModule[] {
     RepairModule,
     YieldModule,
     WhatIfModule,
+    DatabaseMaintenanceModule,
     ...staticUi(),
   ],
 })

@@ -7,6 +7,7 @@ import { Station } from '../stations/station.entity';
 import { Unit } from '../units/unit.entity';
 import { User } from '../users/user.entity';
 import { DatabaseSeeder } from './seeders/DatabaseSeeder';
+import { refreshPlannerStatistics } from './maintenance/planner-statistics';
 
 /**
  * `npm run db:seed`: applies pending migrations, then runs the (idempotent) DatabaseSeeder and prints
@@ -20,6 +21,8 @@ async function main(): Promise<void> {
   try {
     const applied = await orm.getMigrator().up();
     await orm.getSeeder().seed(DatabaseSeeder);
+    // the history seed wrote thousands of runs: give the planner their statistics now
+    await refreshPlannerStatistics(orm.em.getConnection());
     const em = orm.em.fork();
     const [users, products, fixtures, stations, lots, units] = await Promise.all([
       em.count(User),

@@ -1,4 +1,4 @@
-import { BeforeUpdate, Entity, Enum, type EventArgs, Index, ManyToOne, Property, Unique } from '@mikro-orm/core';
+import { BeforeUpdate, Entity, Enum, type EventArgs, ManyToOne, Property, Unique } from '@mikro-orm/core';
 import { BaseEntity } from '../common/base.entity';
 import { User } from '../users/user.entity';
 import { TestPlan } from './test-plan.entity';

@@ -10,11 +10,14 @@ export enum MeasurementVerdict {
 }
 
 /**
- * One judged quantity. Written once, in its own transaction, as soon as it is judged; never updated.
+ * One judged quantity. Written once, with the other measurements of its step in one transaction, as soon as
+ * the step is judged; never updated.
  * The limits in force are copied here so the record stands alone.
  */
 @Entity({ tableName: 'measurements' })
 @Index({ properties: ['stepKey', 'measuredAt'] })
+// trend of one quantity (Migration20261202140000)
+@Index({ properties: ['stepKey', 'quantity', 'measuredAt'] })
 export class Measurement extends BaseEntity {
   @ManyToOne(() => TestRun)
   run!: TestRun;

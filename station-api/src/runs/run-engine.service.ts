@@ -243,6 +243,7 @@ export class RunEngineService implements OnApplicationBootstrap, BeforeApplicati
           startedAt,
           onStepStarted: input.onStepStarted,
           onStepTimed: input.onStepTimed,
+          onStepStored: input.onStepStored,
         })
         .finally(() => {
           this.active.delete(stationId);

@@ -17,16 +17,18 @@ vi.mock('../plans/step-kinds', () => ({
   quantityFor: (_key: string, q: unknown[]) => q[0],
 }));
 
-function harness() {
+function harness(storeStep?: MeasurementStore['storeStep']) {
   const emitted: { name: StationEventName; payload: StationEventMap[StationEventName] }[] = [];
   const events = { emit: (name: StationEventName, payload: never) => emitted.push({ name, payload }) } as unknown as StationEventsPublisher;
   const stored: unknown[] = [];
   const store = {
-    store: async (runId: number, row: Parameters<MeasurementStore['store']>[1]) => {
-      stored.push(row);
-      return toMeasurementView({ ...row, id: stored.length }, runId);
-    },
+    storeStep: async (runId: number, rows: Parameters<MeasurementStore['storeStep']>[1]) =>
+      rows.map((row) => {
+        stored.push(row);
+        return toMeasurementView({ ...row, id: stored.length }, runId);
+      }),
   } as unknown as MeasurementStore;
+  if (storeStep) store.storeStep = storeStep;
   const close = vi.fn(async () => false);
   const records = { close } as unknown as RunRecords;
   const scpi = {
@@ -72,5 +74,30 @@ describe('RunExecutor', () => {
     expect(finished).toMatchObject({ verdict: 'error', endReason: 'implausible_reading', failures: [] });
     // the run stopped at the impossible step
     expect(h.emitted.filter((e) => e.name === 'step:started')).toHaveLength(1);
+  });
+
+  it('ends the run store_failed when a step cannot be committed, and shows nothing of that step', async () => {
+    const h = harness(async () => {
+      throw new Error('SQLITE_FULL: database or disk is full');
+    });
+    const outcome = await h.executor.execute({
+      runId: 8,
+      stationId: 1,
+      link: h.link,
+      clock: systemClock,
+      abort: new AbortController(),
+      steps,
+      stopAtFirstFailure: false,
+      unit: { id: 3, serial: 'K5A-2647-00002', lotCode: 'LB-1', view: { id: 3, serial: 'K5A-2647-00002', state: 'untested', testCount: 0, lotCode: 'LB-1', partNumber: 'OB-BK0503', lastTestedAt: null } },
+      product: { partNumber: 'OB-BK0503', vinMinV: 9, vinNomV: 12, vinMaxV: 18, voutNomV: 5, ioutRatedA: 3 },
+      fixture: { voltageUncertaintyV: 0.005 },
+      startedAt: new Date(),
+    });
+    expect(outcome).toMatchObject({ runId: 8, verdict: 'error', endReason: 'store_failed' });
+    expect(outcome.errorMessage).toContain('SQLITE_FULL');
+    expect(h.emitted.filter((e) => e.name === 'measurement:judged')).toEqual([]);
+    // the run stopped at the step it could not store
+    expect(h.emitted.filter((e) => e.name === 'step:started')).toHaveLength(1);
+    expect(h.close).toHaveBeenCalledWith(8, 3, expect.objectContaining({ verdict: 'error', endReason: 'store_failed' }), expect.any(Date));
   });
 });

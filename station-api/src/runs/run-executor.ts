@@ -12,7 +12,7 @@ import type { EngineClock } from './engine-clock';
 import type { MeasurementStore } from './measurement-store';
 import { OrderedEvents } from './ordered-events';
 import type { RunRecords } from './run-records';
-import type { RunOutcome, StepTiming, StopCause } from './run-types';
+import type { RunOutcome, StepStored, StepTiming, StopCause } from './run-types';
 import { quantityFor, runStep } from '../plans/step-kinds';
 import { RunVerdict } from './test-run.entity';
 
@@ -33,10 +33,15 @@ export interface RunContext {
   startedAt: Date;
   onStepStarted?: (runId: number, stepKey: string, stepIndex: number) => void;
   onStepTimed?: (t: StepTiming) => void;
+  /** After a step's measurements are committed and their events handed on: how long that took from the judgment */
+  onStepStored?: (t: StepStored) => void;
 }
 
 /** A reading outside its quantity's physical range: the run ends in error, the unit is not judged. */
 class ImplausibleReading extends Error {}
+
+/** A step's measurements could not be committed (none of them was): the run ends in error, `store_failed`. */
+class StoreFailed extends Error {}
 
 interface Ending {
   verdict: RunOutcome['verdict'];
@@ -45,8 +50,8 @@ interface Ending {
 }
 
 /**
- * Runs a started test: drives the fixture through the plan's steps, judges each limit and stores it as
- * soon as it is judged, leaves the fixture safe whatever happens, and stores and announces the verdict.
+ * Runs a started test: drives the fixture through the plan's steps, judges each limit and commits a step's
+ * measurements together as soon as the step is judged, leaves the fixture safe whatever happens, and stores and announces the verdict.
  */
 export class RunExecutor {
   private readonly logger = new Logger(RunExecutor.name);
@@ -62,7 +67,7 @@ export class RunExecutor {
   async execute(ctx: RunContext): Promise<RunOutcome> {
     const { link, clock, runId, stationId } = ctx;
     const scpi = link.scpi;
-    const failing: Promise<MeasurementView>[] = [];
+    const failing: MeasurementView[] = [];
     const events = new OrderedEvents(this.events);
     let failedStepKey: string | undefined;
     let end: Ending;
@@ -101,19 +106,24 @@ export class RunExecutor {
         linkIntact();
         let stepFailed = false;
         let implausible: string | undefined;
-        for (const limit of step.limits) {
-          const row = judgeLimit(i, step, limit, quantityFor(limit.key, quantities), ctx.fixture, stepStartedAt, clock.now());
-          // the write starts now and commits while the fixture goes on; its event follows the commit
-          const stored = this.store.store(runId, row);
-          events.emitWhen(stored, 'measurement:judged', (measurement) => ({ stationId, runId, stepKey: step.key, measurement }));
+        const rows = step.limits.map((limit) =>
+          judgeLimit(i, step, limit, quantityFor(limit.key, quantities), ctx.fixture, stepStartedAt, clock.now()),
+        );
+        // the step is judged: its measurements are committed together (one transaction) before anything
+        // about them is shown, and the fixture waits for that commit, so a write that fails stops the run
+        const judgedAt = performance.now();
+        const stored = await this.storeStep(runId, rows);
+        for (const measurement of stored) events.emit('measurement:judged', { stationId, runId, stepKey: step.key, measurement });
+        await events.drain();
+        ctx.onStepStored?.({ runId, stepKey: step.key, measurements: stored.length, judgedToStoredMs: performance.now() - judgedAt });
+        for (const [k, row] of rows.entries()) {
           implausible ??= row.implausible;
           if (row.verdict !== 'pass') {
             stepFailed = true;
-            failing.push(stored);
+            failing.push(stored[k]);
           }
         }
         ctx.onStepTimed?.({ runId, stepKey: step.key, wallMs: performance.now() - t0 });
-        if (events.error) throw events.error;
         // the readings of the step are stored; an impossible one stops the run before the unit is judged
         if (implausible) throw new ImplausibleReading(implausible);
         if (stepFailed) failedStepKey ??= step.key;
@@ -121,7 +131,7 @@ export class RunExecutor {
       }
       end = { verdict: failing.length > 0 ? RunVerdict.Fail : RunVerdict.Pass };
     } catch (err) {
-      end = this.ending(runId, err, ctx.abort.signal, events.error);
+      end = this.ending(runId, err, ctx.abort.signal);
     } finally {
       scpi.abortSignal = undefined;
     }
@@ -133,15 +143,12 @@ export class RunExecutor {
     }
     // every measurement committed and announced before the verdict
     await events.drain();
-    if (events.error && end.verdict !== RunVerdict.Error) {
-      end = { verdict: RunVerdict.Error, endReason: 'store_failed', errorMessage: `A measurement could not be stored (${events.error.message}). Test the unit again.` };
-    }
-    const failures = end.verdict === RunVerdict.Error ? [] : await Promise.all(failing);
+    const failures = end.verdict === RunVerdict.Error ? [] : failing;
     return this.finish(ctx, end, failures, failedStepKey);
   }
 
   /** How a run that threw ends: its verdict, end reason and message. */
-  private ending(runId: number, err: unknown, signal: AbortSignal, storeError: Error | undefined): Ending {
+  private ending(runId: number, err: unknown, signal: AbortSignal): Ending {
     if (err instanceof CommandAborted || signal.aborted) {
       if ((signal.reason as StopCause | undefined) === 'server_shutdown') {
         return { verdict: RunVerdict.Aborted, endReason: 'server_shutdown', errorMessage: 'Stopped: station server shut down' };
@@ -157,11 +164,11 @@ export class RunExecutor {
       return { verdict: RunVerdict.Error, endReason: 'implausible_reading', errorMessage: `${err.message}. The unit was not judged.` };
     }
     this.logger.error(`Run ${runId}: ${(err as Error).stack ?? err}`);
-    if (err === storeError) {
+    if (err instanceof StoreFailed) {
       return {
         verdict: RunVerdict.Error,
         endReason: 'store_failed',
-        errorMessage: `A measurement could not be stored (${(err as Error).message}); the run was stopped. Test the unit again.`,
+        errorMessage: `The measurements of a step could not be stored (${err.message}); none of that step was kept and the run was stopped. Test the unit again.`,
       };
     }
     return {
@@ -169,6 +176,17 @@ export class RunExecutor {
       endReason: 'software_fault',
       errorMessage: `Software fault in the test engine: ${(err as Error).message}. The unit was not judged.`,
     };
+  }
+
+  /** Commits a step's judged rows in one transaction; a failure becomes {@link StoreFailed}. */
+  private async storeStep(runId: number, rows: Parameters<MeasurementStore['storeStep']>[1]): Promise<MeasurementView[]> {
+    try {
+      return await this.store.storeStep(runId, rows);
+    } catch (err) {
+      // the driver's message repeats the whole statement; the cause is after its last " - "
+      const message = (err as Error).message;
+      throw new StoreFailed(message.includes(' - ') ? message.slice(message.lastIndexOf(' - ') + 3) : message);
+    }
   }
 
   private async finish(ctx: RunContext, end: Ending, failures: MeasurementView[], failedStepKey: string | undefined): Promise<RunOutcome> {

@@ -27,12 +27,14 @@ export interface StartRunInput {
   onStepStarted?: (runId: number, stepKey: string, stepIndex: number) => void;
   /** Called after each step with its wall time (benchmark instrumentation) */
   onStepTimed?: (timing: StepTiming) => void;
+  /** Benchmarks: after each step's measurements are committed and their events are out */
+  onStepStored?: (stored: StepStored) => void;
 }
 
 export interface StepTiming {
   runId: number;
   stepKey: string;
-  /** Wall time of the step: its fixture commands, judging, and issuing its measurements' writes, ms */
+  /** Wall time of the step: its fixture commands, judging, the commit of its measurements and their events, ms */
   wallMs: number;
 }
 
@@ -75,3 +77,12 @@ export interface StationStatus {
 
 /** Why a running test is asked to stop: the operator, or the server shutting down. */
 export type StopCause = 'operator_stop' | 'server_shutdown';
+
+export interface StepStored {
+  runId: number;
+  stepKey: string;
+  /** How many measurements the step committed (one transaction) */
+  measurements: number;
+  /** From the step's judgment to its measurements committed (durable) and their events handed to the publisher, ms */
+  judgedToStoredMs: number;
+}

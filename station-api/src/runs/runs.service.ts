@@ -1,46 +1,41 @@
-import { EntityManager, FilterQuery } from '@mikro-orm/sqlite';
+import { EntityManager } from '@mikro-orm/sqlite';
 import { Injectable } from '@nestjs/common';
 import type { RunDetailDto, RunListDto, RunsQueryDto } from './dto/runs.dto';
-import { Measurement } from './measurement.entity';
+import type { PlanStep } from '../plans/plan-definition';
 import { RunRefusal } from './run-refusal';
-import { toMeasurementView, toRunView } from './run-views';
-import { TestRun } from './test-run.entity';
-
-const RUN_POPULATE = ['unit', 'lot', 'product', 'station', 'fixture', 'planVersion.plan', 'operator', 'overrideBy'] as const;
+import { MEASUREMENT_VIEW_SELECT, RUN_VIEW_SELECT, rowToMeasurementView, rowToRunView, runFilterSql } from './run-queries';
 
 /** Read side of runs: lists with filters and one run with every measurement. */
 @Injectable()
 export class RunsService {
   constructor(private readonly em: EntityManager) {}
 
-  /** Newest first. `to` is exclusive so consecutive windows do not overlap. */
+  /** Newest first. `to` is exclusive so consecutive windows do not overlap. `serial` matches any part, any case. */
   async list(q: RunsQueryDto): Promise<RunListDto> {
-    const where: FilterQuery<TestRun> = {};
-    if (q.stationId) where.station = q.stationId;
-    if (q.lotId) where.lot = q.lotId;
-    if (q.serial) where.unit = { serial: q.serial };
-    if (q.verdict) where.verdict = q.verdict as TestRun['verdict'];
-    if (q.from || q.to) {
-      where.startedAt = { ...(q.from ? { $gte: new Date(q.from) } : {}), ...(q.to ? { $lt: new Date(q.to) } : {}) };
-    }
-    const [rows, total] = await this.em.fork().findAndCount(TestRun, where, {
-      populate: RUN_POPULATE,
-      orderBy: { startedAt: 'desc', id: 'desc' },
-      limit: q.limit ?? 50,
-      offset: q.offset ?? 0,
-    });
-    return { items: rows.map(toRunView), total };
+    const conn = this.em.getConnection();
+    const { where, params } = runFilterSql(q);
+    const rows = await conn.execute<Record<string, unknown>[]>(
+      `${RUN_VIEW_SELECT}${where} order by r.started_at desc, r.id desc limit ? offset ?`,
+      [...params, q.limit ?? 50, q.offset ?? 0],
+    );
+    // the count needs no join: every filter is on test_runs itself (the serial through a sub-select)
+    const [{ total }] = await conn.execute<{ total: number }[]>(`select count(*) as total from test_runs r${where}`, params);
+    return { items: rows.map(rowToRunView), total: Number(total) };
   }
 
   async get(id: number): Promise<RunDetailDto> {
-    const em = this.em.fork();
-    const run = await em.findOne(TestRun, { id }, { populate: RUN_POPULATE });
-    if (!run) throw new RunRefusal('run_not_found', `There is no run with id ${id}.`);
-    const measurements = await em.find(Measurement, { run: id }, { orderBy: { stepIndex: 'asc', id: 'asc' } });
+    const conn = this.em.getConnection();
+    const [row] = await conn.execute<Record<string, unknown>[]>(
+      `${RUN_VIEW_SELECT.replace(' from test_runs r ', ', pv.steps as plan_steps from test_runs r ')} where r.id = ?`,
+      [id],
+    );
+    if (!row) throw new RunRefusal('run_not_found', `There is no run with id ${id}.`);
+    const measurements = await conn.execute<Record<string, unknown>[]>(`${MEASUREMENT_VIEW_SELECT} where run_id = ? order by step_index, id`, [id]);
+    const steps = (typeof row.plan_steps === 'string' ? JSON.parse(row.plan_steps) : row.plan_steps) as PlanStep[];
     return {
-      ...toRunView(run),
-      measurements: measurements.map((m) => toMeasurementView(m, id)),
-      steps: run.planVersion.steps.map((s) => ({ key: s.key, name: s.name, kind: s.kind, limits: s.limits })),
+      ...rowToRunView(row),
+      measurements: measurements.map((m) => rowToMeasurementView(m, id)),
+      steps: steps.map((s) => ({ key: s.key, name: s.name, kind: s.kind, limits: s.limits })),
     };
   }
 }

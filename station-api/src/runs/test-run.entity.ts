@@ -36,6 +36,10 @@ export enum RunEndReason {
 @Index({ properties: ['station', 'startedAt'] })
 @Index({ properties: ['fixture', 'startedAt'] })
 @Index({ properties: ['product', 'startedAt'] })
+// issue 11 (Migration20261202140000): board and shift summary, repair queue, runs list by verdict
+@Index({ properties: ['station', 'finishedAt'] })
+@Index({ properties: ['unit', 'verdict'] })
+@Index({ properties: ['verdict', 'startedAt'] })
 // at most one running run per unit and per station: partial unique indexes created by Migration20261202130000
 // (MikroORM cannot declare a partial index on an entity)
 export class TestRun extends BaseEntity {

@@ -37,7 +37,7 @@ export { DECISIONS as DECISION_STATEMENTS, END_REASONS as RUN_END_REASONS } from
 export class RunsQueryDto {
   @ApiPropertyOptional() @Optional() @Type(() => Number) @IsInt() @Min(1) stationId?: number;
   @ApiPropertyOptional() @Optional() @Type(() => Number) @IsInt() @Min(1) lotId?: number;
-  @ApiPropertyOptional({ description: 'exact serial' }) @Optional() @Transform(trim) @IsString() @MaxLength(64) serial?: string;
+  @ApiPropertyOptional({ description: 'any part of the serial, any case (e.g. "00017" or "k5a-2648")' }) @Optional() @Transform(trim) @IsString() @MaxLength(64) serial?: string;
   @ApiPropertyOptional({ enum: RUN_VERDICTS }) @Optional() @IsIn(RUN_VERDICTS) verdict?: (typeof RUN_VERDICTS)[number];
   @ApiPropertyOptional({ description: 'runs started at or after (ISO 8601)' }) @Optional() @IsISO8601() from?: string;
   @ApiPropertyOptional({ description: 'runs started before (ISO 8601)' }) @Optional() @IsISO8601() to?: string;
