@@ -47,17 +47,32 @@ export function likePattern(part: string): string {
 export function runFilterSql(q: RunFilter): { where: string; params: unknown[] } {
   const clauses: string[] = [];
   const params: unknown[] = [];
-  if (q.stationId) (clauses.push('r.station_id = ?'), params.push(q.stationId));
-  if (q.lotId) (clauses.push('r.lot_id = ?'), params.push(q.lotId));
-  if (q.verdict) (clauses.push('r.verdict = ?'), params.push(q.verdict));
+  if (q.stationId) {
+    clauses.push('r.station_id = ?');
+    params.push(q.stationId);
+  }
+  if (q.lotId) {
+    clauses.push('r.lot_id = ?');
+    params.push(q.lotId);
+  }
+  if (q.verdict) {
+    clauses.push('r.verdict = ?');
+    params.push(q.verdict);
+  }
   if (q.serial) {
     // LIKE is case-insensitive for ASCII in SQLite, which is every character a serial may hold
     clauses.push("r.unit_id in (select id from units where serial like ? escape '\\')");
     params.push(likePattern(q.serial.trim()));
   }
   // dates are stored as epoch milliseconds (the ORM's SQLite mapping)
-  if (q.from) (clauses.push('r.started_at >= ?'), params.push(new Date(q.from).getTime()));
-  if (q.to) (clauses.push('r.started_at < ?'), params.push(new Date(q.to).getTime()));
+  if (q.from) {
+    clauses.push('r.started_at >= ?');
+    params.push(new Date(q.from).getTime());
+  }
+  if (q.to) {
+    clauses.push('r.started_at < ?');
+    params.push(new Date(q.to).getTime());
+  }
   return { where: clauses.length ? ` where ${clauses.join(' and ')}` : '', params };
 }
 

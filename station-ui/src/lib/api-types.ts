@@ -2705,7 +2705,7 @@ export interface operations {
                 limit?: number;
                 lotId?: number;
                 offset?: number;
-                /** @description exact serial */
+                /** @description any part of the serial, any case (e.g. "00017" or "k5a-2648") */
                 serial?: string;
                 stationId?: number;
                 /** @description runs started before (ISO 8601) */
