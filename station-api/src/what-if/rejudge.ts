@@ -1,7 +1,8 @@
 import { judge } from '../measure/acceptance';
 import type { LimitSpec, PlanStep } from '../plans/plan-definition';
 import { parseLimitKey } from '../plans/step-kinds/limit-keys';
-import { wilsonInterval, type ProportionInterval } from '../stats/yield';
+import type { AffectedUnit, LimitChangeCount, RejudgeResult } from '../contract/what-if-views';
+import { wilsonInterval } from '../stats/yield';
 
 /**
  * Re-judging stored measurements against a draft's limits, as plain data in and out (no database, no writes).
@@ -37,43 +38,7 @@ export interface UnitRun {
 
 export type Change = 'pass_to_fail' | 'fail_to_pass';
 
-export interface LimitChangeCount {
-  stepKey: string;
-  stepName: string;
-  limitKey: string;
-  limitName: string;
-  unit: string;
-  passToFail: number;
-  failToPass: number;
-  /** units with a stored measurement for this limit */
-  measured: number;
-}
-
-export interface AffectedUnit {
-  unitId: number;
-  serial: string;
-  runId: number;
-  before: 'pass' | 'fail';
-  after: 'pass' | 'fail';
-  /** limits whose verdict changed, `step/limit` */
-  limits: { stepKey: string; limitKey: string; value: number | null; before: 'pass' | 'fail'; after: 'pass' | 'fail' }[];
-}
-
-export interface RejudgeResult {
-  unitsInScope: number;
-  measurementsJudged: number;
-  passToFail: number;
-  failToPass: number;
-  unknown: number;
-  perStep: { stepKey: string; stepName: string; passToFail: number; failToPass: number }[];
-  perLimit: LimitChangeCount[];
-  unmeasuredLimits: { stepKey: string; limitKey: string }[];
-  /** first-pass yield of the units in scope as stored */
-  currentFpy: ProportionInterval;
-  /** predicted first-pass yield under the draft (units with a predicted verdict), Wilson 95 % */
-  predictedFpy: ProportionInterval;
-  affected: AffectedUnit[];
-}
+export type { AffectedUnit, LimitChangeCount, RejudgeResult } from '../contract/what-if-views';
 
 /** Step key + quantity with the load read as a number, so `voutV@1.5` and `voutV@1.50A` meet. */
 function measureKey(stepKey: string, quantity: string): string {

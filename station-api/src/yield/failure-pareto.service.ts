@@ -3,7 +3,7 @@ import { BadRequestException, Injectable } from '@nestjs/common';
 import { paretoTable } from '../stats';
 import type { ParetoQueryDto, ParetoUnitsQueryDto } from './dto/yield-query.dto';
 import { ALL_RUN_FILTERS, resolveFilter, runConditions } from './yield-filter';
-import type { ParetoUnit, ParetoUnitsView, ParetoView } from './yield-views';
+import type { ParetoUnit, ParetoUnitsView, ParetoView } from '../contract/yield-views';
 
 /** Most rows listed behind one bar; the total is always given, the CSV export has them all. */
 export const PARETO_UNITS_LIMIT = 500;

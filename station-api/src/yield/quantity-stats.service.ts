@@ -3,7 +3,7 @@ import { BadRequestException, Injectable } from '@nestjs/common';
 import { andersonDarling, capability, histogram, individualsChart, MIN_AD_SAMPLE, xbarRChart, type SpecLimits } from '../stats';
 import type { ControlChartQueryDto, QuantityQueryDto, YieldFilterDto } from './dto/yield-query.dto';
 import { ALL_RUN_FILTERS, resolveFilter, runConditions, type RunFilter, type SqlPart } from './yield-filter';
-import type { CapabilityView, ChartPanel, ControlChartView, QuantityChoice, QuantityLimits } from './yield-views';
+import type { CapabilityView, ChartPanel, ControlChartView, QuantityChoice, QuantityLimits } from '../contract/yield-views';
 
 /** Quantities offered for capability are read from this many recent runs of the product (plans change rarely). */
 const RECENT_RUNS_FOR_CHOICES = 200;

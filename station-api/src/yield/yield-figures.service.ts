@@ -4,9 +4,10 @@ import { ConfigService } from '@nestjs/config';
 import type { EnvironmentVariables } from '../config/env.validation';
 import { parseShiftStarts, shiftAt, type ShiftStart } from '../shift/shift';
 import { rolledThroughputYield, wilsonInterval } from '../stats';
-import type { BreakdownDimension, YieldFiguresQueryDto } from './dto/yield-query.dto';
+import type { BreakdownDimension } from '../contract/yield-views';
+import type { YieldFiguresQueryDto } from './dto/yield-query.dto';
 import { perUnitCte, resolveFilter, type RunFilter } from './yield-filter';
-import type { RtyStep, YieldFiguresView, YieldGroup } from './yield-views';
+import type { RtyStep, YieldFiguresView, YieldGroup } from '../contract/yield-views';
 
 interface GroupRow {
   grp: string | number;

@@ -7,7 +7,7 @@ import { FailureParetoService } from './failure-pareto.service';
 import { MeasurementExportService } from './measurement-export.service';
 import { QuantityStatsService } from './quantity-stats.service';
 import { YieldFiguresService } from './yield-figures.service';
-import type { CapabilityView, ControlChartView, ParetoUnitsView, ParetoView, QuantityChoice, YieldFiguresView } from './yield-views';
+import type { CapabilityView, ControlChartView, ParetoUnitsView, ParetoView, QuantityChoice, YieldFiguresView } from '../contract/yield-views';
 
 /** Read-only quality views: yield, failure Pareto, capability, control charts and the measurements export. */
 @ApiTags('yield')

@@ -1,5 +1,6 @@
 import { ApiPropertyOptional, ApiProperty } from '@nestjs/swagger';
 import { Transform, Type } from 'class-transformer';
+import { BREAKDOWN_DIMENSIONS, PARETO_DIMENSIONS, type BreakdownDimension, type ParetoDimension } from '../../contract/yield-views';
 import { IsIn, IsInt, IsOptional, IsString, Matches, Max, MaxLength, Min, MinLength } from 'class-validator';
 
 const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
@@ -26,8 +27,6 @@ export class YieldFilterDto {
   @ApiPropertyOptional() @IsOptional() @Type(() => Number) @IsInt({ message: 'stationId must be a whole number (the id of a station)' }) @Min(1, { message: 'stationId must be 1 or more' }) stationId?: number;
 }
 
-export const BREAKDOWN_DIMENSIONS = ['lot', 'product', 'station', 'fixture', 'operator', 'day', 'shift'] as const;
-export type BreakdownDimension = (typeof BREAKDOWN_DIMENSIONS)[number];
 
 export class YieldFiguresQueryDto extends YieldFilterDto {
   @ApiPropertyOptional({ enum: BREAKDOWN_DIMENSIONS, default: 'lot' })
@@ -36,8 +35,6 @@ export class YieldFiguresQueryDto extends YieldFilterDto {
   by?: BreakdownDimension;
 }
 
-export const PARETO_DIMENSIONS = ['step', 'quantity'] as const;
-export type ParetoDimension = (typeof PARETO_DIMENSIONS)[number];
 
 export class ParetoQueryDto extends YieldFilterDto {
   @ApiPropertyOptional({ enum: PARETO_DIMENSIONS, default: 'step' })

@@ -1,4 +1,10 @@
-/** The plans API's shapes as this screen reads them (station-api src/plans/dto, src/what-if/dto). */
+/** The plans API's shapes as this screen reads them (station-api src/plans/dto); the what-if answer is the server's own. */
+import type { ProportionInterval } from '@contract/what-if-views';
+
+export type { WhatIfResult } from '@contract/what-if-views';
+/** A proportion with its Wilson interval, as the server sends it */
+export type Interval = ProportionInterval;
+
 export interface UserRef {
   id: number;
   username: string;
@@ -102,29 +108,6 @@ export interface PlanComparison {
   changed: { key: string; name: string; changes: ValueChange[] }[];
   settings: ValueChange[];
   identical: boolean;
-}
-
-export interface Interval {
-  x: number;
-  n: number;
-  estimate: number | null;
-  lower: number;
-  upper: number;
-}
-
-export interface WhatIfResult {
-  scopeText: string;
-  unitsInScope: number;
-  measurementsJudged: number;
-  passToFail: number;
-  failToPass: number;
-  unknown: number;
-  perStep: { stepKey: string; stepName: string; passToFail: number; failToPass: number }[];
-  perLimit: { stepKey: string; limitKey: string; limitName: string; unit: string; passToFail: number; failToPass: number; measured: number }[];
-  unmeasuredLimits: { stepKey: string; limitKey: string }[];
-  currentFpy: Interval;
-  predictedFpy: Interval;
-  affected: { unitId: number; serial: string; runId: number; before: string; after: string; limits: { stepKey: string; limitKey: string; value: number | null }[] }[];
 }
 
 export type WhatIfScope = { scope: 'last_units'; units: number } | { scope: 'lot'; lotId: number } | { scope: 'dates'; from: string; to: string };

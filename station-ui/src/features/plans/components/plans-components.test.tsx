@@ -17,6 +17,8 @@ const comparison: PlanComparison = {
 };
 
 const result: WhatIfResult = {
+  planVersionId: 7,
+  elapsedMs: 12,
   scopeText: 'lot L-1',
   unitsInScope: 9,
   measurementsJudged: 16,
@@ -24,11 +26,11 @@ const result: WhatIfResult = {
   failToPass: 1,
   unknown: 1,
   perStep: [],
-  perLimit: [{ stepKey: 'vout-load', limitKey: 'voutV@1.5', limitName: 'Output voltage at 1.5 A', unit: 'V', passToFail: 2, failToPass: 2, measured: 9 }],
+  perLimit: [{ stepKey: 'vout-load', stepName: 'Output voltage under load', limitKey: 'voutV@1.5', limitName: 'Output voltage at 1.5 A', unit: 'V', passToFail: 2, failToPass: 2, measured: 9 }],
   unmeasuredLimits: [],
-  currentFpy: { x: 4, n: 9, estimate: 4 / 9, lower: 0.189, upper: 0.733 },
-  predictedFpy: { x: 2, n: 8, estimate: 0.25, lower: 0.0715, upper: 0.5907 },
-  affected: [{ unitId: 3, serial: 'K5A-2647-00003', runId: 42, before: 'pass', after: 'fail', limits: [{ stepKey: 'vout-load', limitKey: 'voutV@1.5', value: 5.045 }] }],
+  currentFpy: { x: 4, n: 9, estimate: 4 / 9, lower: 0.189, upper: 0.733, confidence: 0.95, method: 'Wilson score' },
+  predictedFpy: { x: 2, n: 8, estimate: 0.25, lower: 0.0715, upper: 0.5907, confidence: 0.95, method: 'Wilson score' },
+  affected: [{ unitId: 3, serial: 'K5A-2647-00003', runId: 42, before: 'pass', after: 'fail', limits: [{ stepKey: 'vout-load', limitKey: 'voutV@1.5', value: 5.045, before: 'pass', after: 'fail' }] }],
 };
 
 describe('plan comparison and what-if summary', () => {

@@ -2,45 +2,8 @@ import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query'
 import { api } from '@/lib/api-client';
 import type { QuantitySelection } from './get-capability';
 import { yieldApiPaths, yieldQuery, yieldQueryRoot, type YieldFilters } from './yield-filters';
-
-export type RuleSet = 'western-electric' | 'nelson';
-
-export interface ChartPoint {
-  index: number;
-  value: number;
-  label: string;
-  runIds: number[];
-}
-
-export interface ChartPanel {
-  centre: number;
-  upper: number;
-  lower: number;
-  points: ChartPoint[];
-}
-
-export interface RuleViolation {
-  rule: string;
-  index: number;
-  indices: number[];
-  message: string;
-}
-
-/** `GET /api/yield/control-chart` */
-export interface ControlChartView {
-  step: string;
-  quantity: string;
-  name: string;
-  unit: string;
-  kind: 'individuals-moving-range' | 'xbar-r' | null;
-  subgroupSize: number;
-  rules: RuleSet;
-  n: number;
-  location: ChartPanel | null;
-  spread: (ChartPanel & { signals: { index: number; message: string }[] }) | null;
-  violations: RuleViolation[];
-  problem: string | null;
-}
+export type { ChartPanel, ChartPoint, ControlChartView, RuleSet, RuleViolation } from '@contract/yield-views';
+import type { ControlChartView, RuleSet } from '@contract/yield-views';
 
 export interface ChartOptions {
   subgroupSize: number;

@@ -1,24 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import { yieldApiPaths, yieldQuery, yieldQueryRoot, type YieldFilters } from './yield-filters';
-
-export type ParetoDimension = 'step' | 'quantity';
-
-export interface ParetoBar {
-  key: string;
-  label: string;
-  count: number;
-  percent: number;
-  cumulativeCount: number;
-  cumulativePercent: number;
-}
-
-/** `GET /api/yield/pareto` */
-export interface ParetoView {
-  by: ParetoDimension;
-  failedRuns: number;
-  bars: ParetoBar[];
-}
+export type { ParetoBar, ParetoDimension, ParetoView } from '@contract/yield-views';
+import type { ParetoDimension, ParetoView } from '@contract/yield-views';
 
 export function getFailurePareto(filters: YieldFilters, by: ParetoDimension, signal?: AbortSignal): Promise<ParetoView> {
   return api.get<ParetoView>(yieldApiPaths.pareto, { query: { ...yieldQuery(filters), by }, signal });

@@ -1,14 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import { yieldApiPaths, yieldQueryRoot } from './yield-filters';
-
-export interface QuantityChoice {
-  step: string;
-  stepName: string;
-  quantity: string;
-  name: string;
-  unit: string;
-}
+export type { QuantityChoice } from '@contract/yield-views';
+import type { QuantityChoice } from '@contract/yield-views';
 
 /** `GET /api/yield/quantities`: what a product's (or lot's) runs measure, in plan order. */
 export function getQuantities(scope: { productId?: string; lotId?: string }, signal?: AbortSignal): Promise<QuantityChoice[]> {

@@ -1,35 +1,9 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import { yieldApiPaths, yieldQuery, yieldQueryRoot, type ProportionInterval, type YieldFilters } from './yield-filters';
-
-export const BREAKDOWN_DIMENSIONS = ['lot', 'product', 'station', 'fixture', 'operator', 'day', 'shift'] as const;
-export type BreakdownDimension = (typeof BREAKDOWN_DIMENSIONS)[number];
-
-export interface YieldGroup {
-  key: string;
-  label: string;
-  unitsTested: number;
-  firstPass: ProportionInterval;
-  final: ProportionInterval;
-}
-
-export interface RtyStep {
-  stepKey: string;
-  stepName: string;
-  entered: number;
-  passedFirstTime: number;
-  firstPass: ProportionInterval;
-}
-
-/** `GET /api/yield/figures` */
-export interface YieldFiguresView {
-  by: BreakdownDimension;
-  overall: YieldGroup;
-  rty: { value: number | null; normalizedYield: number | null; steps: RtyStep[]; note: string };
-  breakdown: YieldGroup[];
-  trend: YieldGroup[];
-  definitions: { firstPass: string; final: string; rty: string; interval: string };
-}
+import { yieldApiPaths, yieldQuery, yieldQueryRoot, type YieldFilters } from './yield-filters';
+export { BREAKDOWN_DIMENSIONS } from '@contract/yield-views';
+export type { BreakdownDimension, RtyStep, YieldFiguresView, YieldGroup } from '@contract/yield-views';
+import type { BreakdownDimension, YieldFiguresView } from '@contract/yield-views';
 
 export function getYieldFigures(filters: YieldFilters, by: BreakdownDimension, signal?: AbortSignal): Promise<YieldFiguresView> {
   return api.get<YieldFiguresView>(yieldApiPaths.figures, { query: { ...yieldQuery(filters), by }, signal });

@@ -1,3 +1,4 @@
+export type { ProportionInterval } from '@contract/yield-views';
 /** The filters every quality view shares, as they travel in the address and in each request. */
 export interface YieldFilters {
   /** YYYY-MM-DD, first day included */
@@ -43,13 +44,3 @@ export const yieldApiPaths = {
   stations: '/stations',
 } as const;
 
-/** A proportion with its 95 % Wilson score interval, as the server computes it (station-api/src/stats/yield.ts). */
-export interface ProportionInterval {
-  x: number;
-  n: number;
-  estimate: number | null;
-  lower: number;
-  upper: number;
-  confidence: number;
-  method: 'Wilson score';
-}

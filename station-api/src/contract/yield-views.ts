@@ -1,5 +1,18 @@
-import type { CapabilityReport, Histogram, ParetoRow, ProportionInterval, RuleSet, RuleViolation } from '../stats';
-import type { BreakdownDimension, ParetoDimension } from './dto/yield-query.dto';
+/*
+ * What the yield endpoints answer: the one definition, read by the server's yield services and, through the
+ * `@contract/*` alias, by the Quality screen. Type-only imports of the pure statistics module.
+ */
+import type { CapabilityReport, Histogram, IndexEstimate, ParetoRow, PpmOutside, ProportionInterval, RuleSet, RuleViolation } from '../stats';
+
+export type { CapabilityReport, Histogram, IndexEstimate, ParetoRow, PpmOutside, ProportionInterval, RuleSet, RuleViolation };
+
+/** How the yield figures can be broken down. */
+export const BREAKDOWN_DIMENSIONS = ['lot', 'product', 'station', 'fixture', 'operator', 'day', 'shift'] as const;
+export type BreakdownDimension = (typeof BREAKDOWN_DIMENSIONS)[number];
+
+/** What the failure Pareto counts by. */
+export const PARETO_DIMENSIONS = ['step', 'quantity'] as const;
+export type ParetoDimension = (typeof PARETO_DIMENSIONS)[number];
 
 /** What the yield endpoints answer. Proportions are 0..1; the screen shows them as percent. */
 
