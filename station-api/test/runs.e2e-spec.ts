@@ -150,6 +150,13 @@ describe('runs REST', () => {
       stop();
       sim.mute = false;
     }
+    // the muted fixture could not confirm it was switched off, which blocks the station until it reads back
+    // off again (the link asks by itself about once a second)
+    for (let i = 0; i < 50; i++) {
+      const s = await h.http().get(`/api/stations/${eol1}/status`).set(auth()).expect(200);
+      if (s.body.state === 'ready') break;
+      await new Promise((resolve) => setTimeout(resolve, 100));
+    }
   });
 
   it('requires the safety confirmation, and audits it', async () => {

@@ -12,7 +12,7 @@ export const RUN_VIEW_SELECT =
   'select r.id, r.attempt, r.verdict, r.started_at, r.finished_at, r.failed_step_key, r.error_message, r.end_reason, ' +
   'r.fixture_identity, r.fixture_calibration_due_at, r.fixture_contact_cycles, r.override_reason, r.operator_name, ' +
   'r.station_id, s.code as station_code, r.unit_id, u.serial, r.lot_id, l.code as lot_code, r.product_id, p.part_number, ' +
-  'r.plan_version_id, pv.version as plan_version, tp.code as plan_code, r.fixture_id, f.code as fixture_code, ' +
+  'r.plan_version_id, pv.version as plan_version, pv.checksum as plan_checksum, tp.code as plan_code, r.fixture_id, f.code as fixture_code, ' +
   'r.operator_id, op.display_name as operator_display_name, r.override_by_id, ob.display_name as override_by_display_name ' +
   'from test_runs r ' +
   'join stations s on s.id = r.station_id ' +
@@ -92,7 +92,7 @@ export function rowToRunView(row: Record<string, unknown>): RunView {
     unit: { id: n('unit_id'), serial: String(row.serial) },
     lot: { id: n('lot_id'), code: String(row.lot_code) },
     product: { id: n('product_id'), partNumber: String(row.part_number) },
-    planVersion: { id: n('plan_version_id'), version: n('plan_version'), plan: { code: String(row.plan_code) } },
+    planVersion: { id: n('plan_version_id'), version: n('plan_version'), checksum: String(row.plan_checksum), plan: { code: String(row.plan_code) } },
     operator: { id: n('operator_id'), displayName: String(row.operator_display_name) },
     operatorName: s('operator_name'),
     fixture: { id: n('fixture_id'), code: String(row.fixture_code) },
