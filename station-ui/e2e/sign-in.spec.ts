@@ -19,7 +19,7 @@ afterAll(async () => {
 // Navigation per role and start page per role, as the task brief fixes them; order is config/paths.ts.
 const expectations: Record<DemoRole, { home: string; nav: string[] }> = {
   operator: { home: '/station', nav: ['Station', 'Board'] },
-  engineer: { home: '/plans', nav: ['Station', 'Board', 'Repair', 'Plans', 'Fixtures', 'Lots', 'Runs'] },
+  engineer: { home: '/plans', nav: ['Station', 'Board', 'Repair', 'Plans', 'Fixtures', 'Lots', 'Runs', 'Quality'] },
   quality: { home: '/quality', nav: ['Board', 'Repair', 'Lots', 'Runs', 'Quality'] },
   admin: {
     home: '/admin/users',
