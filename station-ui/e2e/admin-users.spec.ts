@@ -118,12 +118,12 @@ describe('admin → users against the real server', () => {
     const { context, page } = await newPage(browser, server.baseUrl);
     try {
       await signInAs(page, 'admin');
-      await page.getByRole('link', { name: 'Audit log' }).click();
+      await page.getByRole('link', { name: 'Audit trail' }).click();
       const table = page.getByRole('table', { name: 'Audit entries' });
       await table.waitFor();
       await page.getByRole('textbox', { name: 'Action' }).fill('auth.login_failed');
       await page.getByRole('button', { name: 'Show' }).click();
-      await page.waitForURL('**/admin/audit?action=auth.login_failed');
+      await page.waitForURL('**/audit?action=auth.login_failed');
       const actionCells = table.locator('tbody tr td:nth-child(3)');
       await expect
         .poll(async () => [...new Set((await actionCells.allInnerTexts()).map((a) => a.trim()))], { timeout: 10_000 })

@@ -19,11 +19,11 @@ afterAll(async () => {
 // Navigation per role and start page per role, as the task brief fixes them; order is config/paths.ts.
 const expectations: Record<DemoRole, { home: string; nav: string[] }> = {
   operator: { home: '/station', nav: ['Station', 'Board'] },
-  engineer: { home: '/plans', nav: ['Station', 'Board', 'Repair', 'Plans', 'Fixtures', 'Lots', 'Runs', 'Quality'] },
-  quality: { home: '/quality', nav: ['Board', 'Repair', 'Lots', 'Runs', 'Quality'] },
+  engineer: { home: '/plans', nav: ['Station', 'Board', 'Repair', 'Plans', 'Limits from data', 'Fixtures', 'Lots', 'Runs', 'Quality', 'Holds and alerts', 'Audit trail'] },
+  quality: { home: '/quality', nav: ['Board', 'Repair', 'Lots', 'Runs', 'Quality', 'Holds and alerts', 'Audit trail'] },
   admin: {
     home: '/admin/users',
-    nav: ['Station', 'Board', 'Repair', 'Plans', 'Fixtures', 'Lots', 'Runs', 'Quality', 'Users', 'Audit log'],
+    nav: ['Station', 'Board', 'Repair', 'Plans', 'Limits from data', 'Fixtures', 'Lots', 'Runs', 'Quality', 'Holds and alerts', 'Audit trail', 'Users'],
   },
 };
 

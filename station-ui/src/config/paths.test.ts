@@ -19,7 +19,7 @@ describe('paths', () => {
 
   it('finds the page of nested addresses', () => {
     expect(pageForPathname('/lots/LB-2648-03')?.label).toBe('Lots');
-    expect(pageForPathname('/admin/audit')?.label).toBe('Audit log');
+    expect(pageForPathname('/audit')?.label).toBe('Audit trail');
     expect(pageForPathname('/nowhere')).toBeUndefined();
   });
 

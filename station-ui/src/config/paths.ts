@@ -36,12 +36,14 @@ export const pages = {
   board: page('/board', 'Board', 'floor', ['operator', 'engineer', 'quality']),
   repair: page('/repair', 'Repair', 'floor', ['engineer', 'quality']),
   plans: page('/plans', 'Plans', 'engineering', ['engineer']),
+  characterization: page('/limits-from-data', 'Limits from data', 'engineering', ['engineer']),
   fixtures: page('/fixtures', 'Fixtures', 'engineering', ['engineer']),
   lots: page('/lots', 'Lots', 'engineering', ['engineer', 'quality']),
   runs: page('/runs', 'Runs', 'engineering', ['engineer', 'quality']),
   quality: page('/quality', 'Quality', 'quality', ['engineer', 'quality']),
+  holds: page('/holds', 'Holds and alerts', 'quality', ['engineer', 'quality']),
+  audit: page('/audit', 'Audit trail', 'quality', ['engineer', 'quality']),
   adminUsers: page('/admin/users', 'Users', 'admin', ['admin']),
-  adminAudit: page('/admin/audit', 'Audit log', 'admin', ['admin']),
 } as const satisfies Record<string, PageDef>;
 
 export type PageKey = keyof typeof pages;
@@ -58,6 +60,8 @@ export const paths = {
   },
   /** One run with its traceability and every measurement (same roles as Runs: it sits under /runs). */
   runDetail: { path: '/runs/:id', href: (id: number) => `/runs/${id}` },
+  /** One unit's whole history (every run, measurement, repair and disposition), reached by serial. */
+  unitHistory: { path: '/units/:serial', href: (serial: string) => `/units/${encodeURIComponent(serial)}` },
   notFound: { path: '*' },
 } as const;
 

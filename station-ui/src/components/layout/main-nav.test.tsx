@@ -14,11 +14,11 @@ function linkNames(): string[] {
 // Expected sets come from the task brief (role → navigation); order is the fixed order of config/paths.ts.
 const cases: [Role[], string[]][] = [
   [['operator'], ['Station', 'Board']],
-  [['engineer'], ['Station', 'Board', 'Repair', 'Plans', 'Fixtures', 'Lots', 'Runs', 'Quality']],
-  [['quality'], ['Board', 'Repair', 'Lots', 'Runs', 'Quality']],
-  [['admin'], ['Station', 'Board', 'Repair', 'Plans', 'Fixtures', 'Lots', 'Runs', 'Quality', 'Users', 'Audit log']],
-  [['operator', 'quality'], ['Station', 'Board', 'Repair', 'Lots', 'Runs', 'Quality']],
-  [['engineer', 'quality'], ['Station', 'Board', 'Repair', 'Plans', 'Fixtures', 'Lots', 'Runs', 'Quality']],
+  [['engineer'], ['Station', 'Board', 'Repair', 'Plans', 'Limits from data', 'Fixtures', 'Lots', 'Runs', 'Quality', 'Holds and alerts', 'Audit trail']],
+  [['quality'], ['Board', 'Repair', 'Lots', 'Runs', 'Quality', 'Holds and alerts', 'Audit trail']],
+  [['admin'], ['Station', 'Board', 'Repair', 'Plans', 'Limits from data', 'Fixtures', 'Lots', 'Runs', 'Quality', 'Holds and alerts', 'Audit trail', 'Users']],
+  [['operator', 'quality'], ['Station', 'Board', 'Repair', 'Lots', 'Runs', 'Quality', 'Holds and alerts', 'Audit trail']],
+  [['engineer', 'quality'], ['Station', 'Board', 'Repair', 'Plans', 'Limits from data', 'Fixtures', 'Lots', 'Runs', 'Quality', 'Holds and alerts', 'Audit trail']],
   [[], []],
 ];
 

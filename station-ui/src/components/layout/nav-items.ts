@@ -1,5 +1,7 @@
 import {
   IconBarcode,
+  IconChartDots,
+  IconHandStop,
   IconChartHistogram,
   IconClipboardList,
   IconFileSearch,
@@ -19,12 +21,14 @@ const icons: Record<PageKey, Icon> = {
   board: IconLayoutDashboard,
   repair: IconTool,
   plans: IconClipboardList,
+  characterization: IconChartDots,
   fixtures: IconPlugConnected,
   lots: IconPackages,
   runs: IconHistory,
   quality: IconChartHistogram,
+  holds: IconHandStop,
   adminUsers: IconUsers,
-  adminAudit: IconFileSearch,
+  audit: IconFileSearch,
 };
 
 export interface NavItem {
