@@ -1,6 +1,6 @@
 // npm test: every test of every workspace. Gets what the tests need first (node modules, Debian's
 // chromium and socat), builds, then runs the suites and prints one closing tally.
-import { spawnSync } from 'node:child_process';
+import { spawn } from 'node:child_process';
 import { TEST_PACKAGES } from './ensure-deps.mjs';
 import { buildAll, ensureDebianPackages, ensureNodeModules, log, root } from './lib.mjs';
 
@@ -8,58 +8,98 @@ ensureNodeModules();
 ensureDebianPackages(TEST_PACKAGES);
 buildAll();
 
-// Checks that keep the code's shape (each counts as one test): types of every workspace with its tests,
-// lint, dependency boundaries, and the UI's REST types against the server's OpenAPI document.
-const checks = [
-  ['type-check (every workspace, tests included)', ['npm', 'run', 'typecheck']],
-  ['lint (typescript-eslint recommended)', ['npm', 'run', 'lint']],
-  ['dependency boundaries', ['npm', 'run', 'check:boundaries']],
-  ['UI REST types match the OpenAPI document', ['node', 'station-ui/scripts/api-types.mjs', '--check', '--no-build']],
+/**
+ * A job: `kind` 'check' counts as one test (passes or fails as a whole); 'suite' is a Vitest run whose
+ * summary line gives the counts.
+ */
+const check = (name, cmd) => ({ kind: 'check', name, cmd });
+const suite = (name, cmd) => ({ kind: 'suite', name, cmd });
+
+// Stage 1, two at a time (the machine has 2 cores): checks that keep the code's shape (types of every
+// workspace with its tests, lint, dependency boundaries, the UI's REST types against the server's OpenAPI
+// document) and the light suites. Their output is printed whole when each ends, so nothing interleaves.
+const stage1 = [
+  check('type-check (every workspace, tests included)', ['npm', 'run', 'typecheck']),
+  check('lint (typescript-eslint recommended)', ['npm', 'run', 'lint']),
+  suite('mock-fixture', ['npm', 'test', '-w', 'mock-fixture']),
+  suite('station-ui (unit)', ['npm', 'test', '-w', 'station-ui']),
+  check('dependency boundaries', ['npm', 'run', 'check:boundaries']),
+  check('UI REST types match the OpenAPI document', ['node', 'station-ui/scripts/api-types.mjs', '--check', '--no-build']),
+];
+// Then the heavy suites one after another: each starts servers and would compete for the cores.
+const heavy = [
+  suite('station-api', ['npm', 'test', '-w', 'station-api']),
+  // alone, so its server restarts do not compete with the other suites for the cores
+  suite('station-api (crash harness)', ['npm', 'run', 'test:crash', '-w', 'station-api']),
+  suite('station-ui (browser)', ['npm', 'run', 'test:browser', '-w', 'station-ui']),
 ];
 
-const suites = [
-  ['mock-fixture', ['npm', 'test', '-w', 'mock-fixture']],
-  ['station-api', ['npm', 'test', '-w', 'station-api']],
-  // alone, so its server restarts do not compete with the other suites for the cores
-  ['station-api (crash harness)', ['npm', 'run', 'test:crash', '-w', 'station-api']],
-  ['station-ui (unit)', ['npm', 'test', '-w', 'station-ui']],
-  ['station-ui (browser)', ['npm', 'run', 'test:browser', '-w', 'station-ui']],
-];
+function runJob(job) {
+  return new Promise((resolvePromise) => {
+    const started = Date.now();
+    const [cmd, ...args] = job.cmd;
+    const child = spawn(cmd, args, { cwd: root, env: { ...process.env, FORCE_COLOR: '1' } });
+    let stdout = '';
+    let stderr = '';
+    child.stdout.on('data', (d) => (stdout += d));
+    child.stderr.on('data', (d) => (stderr += d));
+    child.on('close', (status) => resolvePromise({ job, status, stdout, stderr, seconds: (Date.now() - started) / 1000 }));
+  });
+}
 
 let passed = 0;
 let failed = 0;
-const failedSuites = [];
-for (const [name, [cmd, ...args]] of checks) {
-  log(`Checking ${name}...`);
-  const res = spawnSync(cmd, args, { cwd: root, encoding: 'utf8', env: { ...process.env, FORCE_COLOR: '1' } });
-  if (res.status === 0) {
-    passed += 1;
-  } else {
-    process.stdout.write(res.stdout ?? '');
-    process.stderr.write(res.stderr ?? '');
-    failed += 1;
-    failedSuites.push(name);
+const failedJobs = [];
+const timings = [];
+
+function account({ job, status, stdout, stderr, seconds }) {
+  timings.push(`${job.name}: ${seconds.toFixed(0)} s`);
+  if (job.kind === 'check') {
+    if (status === 0) {
+      passed += 1;
+    } else {
+      process.stdout.write(stdout);
+      process.stderr.write(stderr);
+      failed += 1;
+      failedJobs.push(job.name);
+    }
+    return;
   }
-}
-for (const [name, [cmd, ...args]] of suites) {
-  log(`Running ${name} tests...`);
-  const res = spawnSync(cmd, args, { cwd: root, encoding: 'utf8', env: { ...process.env, FORCE_COLOR: '1' } });
-  process.stdout.write(res.stdout ?? '');
-  process.stderr.write(res.stderr ?? '');
+  process.stdout.write(stdout);
+  process.stderr.write(stderr);
   // Vitest's summary line, e.g. "Tests  12 passed | 1 failed (13)"
   // eslint-disable-next-line no-control-regex -- strips the ANSI colour codes Vitest prints
-  const plain = (res.stdout ?? '').replace(/\x1b\[[0-9;]*m/g, '');
+  const plain = stdout.replace(/\x1b\[[0-9;]*m/g, '');
   const line = plain.split('\n').find((l) => /^\s*Tests\s+/.test(l)) ?? '';
   const p = Number(/(\d+) passed/.exec(line)?.[1] ?? 0);
   const f = Number(/(\d+) failed/.exec(line)?.[1] ?? 0);
   passed += p;
   failed += f;
-  if (res.status !== 0) {
-    failedSuites.push(name);
+  if (status !== 0) {
+    failedJobs.push(job.name);
     if (f === 0) failed += 1; // a suite that crashed before reporting counts as one failure
   }
 }
 
-if (failedSuites.length) log(`Failing suites: ${failedSuites.join(', ')}`);
+/** Runs `jobs` with at most `width` at once, accounting each as it ends. */
+async function runPool(jobs, width) {
+  const queue = [...jobs];
+  const lanes = Array.from({ length: width }, async () => {
+    for (let job = queue.shift(); job; job = queue.shift()) {
+      log(`Running ${job.name}...`);
+      account(await runJob(job));
+    }
+  });
+  await Promise.all(lanes);
+}
+
+await runPool(stage1, 2);
+for (const job of heavy) {
+  log(`Running ${job.name} tests...`);
+  account(await runJob(job));
+}
+
+log(`Times: ${timings.join(' · ')}`);
+if (failedJobs.length) log(`Failing: ${failedJobs.join(', ')}`);
 console.log(`${passed} passed, ${failed} failed`);
-process.exit(failedSuites.length ? 1 : 0);
+process.exit(failedJobs.length ? 1 : 0);

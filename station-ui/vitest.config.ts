@@ -17,5 +17,7 @@ export default defineConfig({
     include: ['src/**/*.test.{ts,tsx}'],
     setupFiles: ['./src/testing/setup.ts'],
     restoreMocks: true,
+    // npm test runs these beside the type-check on 2 cores; a render can take seconds then
+    testTimeout: 20_000,
   },
 });
