@@ -98,7 +98,7 @@ export function LotDetailPanel({ lotId }: { lotId: number }) {
                 <Table.Tr>
                   <Table.Th>Serial</Table.Th>
                   <Table.Th>State</Table.Th>
-                  <Table.Th className={classes.num}>Tests</Table.Th>
+                  <Table.Th className={classes.numHead}>Tests</Table.Th>
                   <Table.Th>Last tested</Table.Th>
                 </Table.Tr>
               </Table.Thead>

@@ -83,13 +83,13 @@ export function LotsTable({ lots, selectedId, onSelect }: LotsTableProps) {
         </Text>
       </Group>
       <div className={classes.tableWrap}>
-        <Table aria-label="Lots" highlightOnHover verticalSpacing="xs">
+        <Table aria-label="Lots" highlightOnHover verticalSpacing="xs" horizontalSpacing={8} fz="sm">
           <Table.Thead>
             <Table.Tr>
               {COLUMNS.map((c) => {
                 const active = sort.key === c.key;
                 return (
-                  <Table.Th key={c.key} aria-sort={active ? (sort.desc ? 'descending' : 'ascending') : 'none'} className={c.numeric ? classes.num : undefined}>
+                  <Table.Th key={c.key} aria-sort={active ? (sort.desc ? 'descending' : 'ascending') : 'none'} className={c.numeric ? classes.numHead : undefined}>
                     <UnstyledButton onClick={() => toggle(c.key)} fw={700} fz="sm" aria-label={`Sort by ${c.label.toLowerCase()}`}>
                       <Group gap={4} wrap="nowrap" justify={c.numeric ? 'flex-end' : 'flex-start'}>
                         {c.label}
@@ -117,7 +117,7 @@ export function LotsTable({ lots, selectedId, onSelect }: LotsTableProps) {
                 onClick={() => onSelect(l.id)}
               >
                 <Table.Td className={classes.mono}>
-                  <UnstyledButton className={classes.mono} fw={600} onClick={() => onSelect(l.id)} aria-label={`Open lot ${l.code}`}>
+                  <UnstyledButton className={classes.mono} fw={600} fz="sm" onClick={() => onSelect(l.id)} aria-label={`Open lot ${l.code}`}>
                     {l.code}
                   </UnstyledButton>
                 </Table.Td>
@@ -131,7 +131,7 @@ export function LotsTable({ lots, selectedId, onSelect }: LotsTableProps) {
                 <Table.Td className={classes.num}>{testedCount(l)}</Table.Td>
                 <Table.Td className={classes.num}>{l.unitCounts.passed}</Table.Td>
                 <Table.Td>
-                  <Badge color={LOT_STATE_WORDS[l.state].color} variant="light" styles={{ label: { textTransform: 'none', overflow: 'visible' } }}>
+                  <Badge size="sm" color={LOT_STATE_WORDS[l.state].color} variant="light" styles={{ label: { textTransform: 'none', overflow: 'visible' } }}>
                     {LOT_STATE_WORDS[l.state].label}
                   </Badge>
                   {l.state === 'on_hold' && l.holdReason && (
