@@ -134,6 +134,8 @@ describe('lots (issue 12)', () => {
       const res = await as('quality', http().post('/api/lots/import')).attach('file', latin1, { filename: 'x.csv', contentType: 'text/csv' }).expect(400);
       expect(res.body.details.problems[0].message).toMatch(/not UTF-8/);
       await as('quality', http().post('/api/lots/import')).field('note', 'no file').expect(400);
+      const big = await upload('quality', 'lot_code,product,planned_quantity,serials\r\n' + 'x'.repeat(1_000_001)).expect(413);
+      expect(big.body.message).toMatch(/larger than 1 MB\. Split it/);
     });
 
     it('round-trips: the export of imported lots is the file that was imported', async () => {

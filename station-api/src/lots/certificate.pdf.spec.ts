@@ -88,3 +88,14 @@ describe('renderCertificate', () => {
     expect(text).toMatch(/page 2 of [23]/);
   });
 });
+
+describe('renderCertificate layout', () => {
+  it('cuts a fact that would run into the next column and ends it with "…"', async () => {
+    const long = content({ lot: { code: 'LB-2649-07-WITH-A-VERY-LONG-SUFFIX', createdAt: new Date(2026, 10, 30), plannedQuantity: 40 } });
+    const text = pdfText(await renderCertificate(long, { compress: false }));
+    // the lot fact is cut; the full code still appears in the footer and the statement
+    expect(text).toMatch(/^LB-2649-07-WITH-A-VERY-\S*…$/m);
+    expect(text).toContain('lot LB-2649-07-WITH-A-VERY-LONG-SUFFIX');
+    expect(text).toContain('Buck 12 V to 5 V, 3 A');
+  });
+});

@@ -21,6 +21,14 @@ export function printable(text: string): string {
     .replace(/[^\x20-\x7e\xa0-\xff‘’“”–—…•€™]/g, '?');
 }
 
+/** The text, cut and ended with "…" when wider than `widthPt` in the current font (a fact never runs into the next). */
+function fitWidth(doc: PDFKit.PDFDocument, text: string, widthPt: number): string {
+  if (doc.widthOfString(text) <= widthPt) return text;
+  let cut = text;
+  while (cut.length > 1 && doc.widthOfString(`${cut}…`) > widthPt) cut = cut.slice(0, -1);
+  return `${cut.trimEnd()}…`;
+}
+
 /** "2026-12-02" and "2026-12-02 14:07" in the server's local time (the plant's wall clock). */
 export function localDate(d: Date): string {
   const p = (n: number) => String(n).padStart(2, '0');
@@ -156,7 +164,8 @@ export function renderCertificate(c: CertificateContent, options: { compress?: b
       ensure(26);
       pairs.slice(i, i + perRow).forEach(([label, value], j) => {
         doc.font('Helvetica').fontSize(7).fillColor(LABEL_GREY).text(printable(label.toUpperCase()), MARGIN + j * w, y, { width: w - 6, lineBreak: false });
-        doc.font('Helvetica-Bold').fontSize(10).fillColor('black').text(printable(value), MARGIN + j * w, y + 9, { width: w - 6, lineBreak: false });
+        doc.font('Helvetica-Bold').fontSize(10).fillColor('black');
+        doc.text(fitWidth(doc, printable(value), w - 6), MARGIN + j * w, y + 9, { width: w - 6, lineBreak: false });
       });
       y += 26;
     }
@@ -171,11 +180,12 @@ export function renderCertificate(c: CertificateContent, options: { compress?: b
   facts(
     [
       ['Lot', c.lot.code],
-      ['Product', `${c.product.partNumber}  ${c.product.name}`],
+      ['Part number', c.product.partNumber],
       ['Lot opened', localDate(c.lot.createdAt)],
     ],
     3,
   );
+  facts([['Product', c.product.name]], 1);
   facts(
     [
       ['Planned', String(c.lot.plannedQuantity)],

@@ -1,4 +1,4 @@
-import { Body, Controller, Get, Header, HttpCode, Param, ParseIntPipe, Post, Query, Res, StreamableFile, UploadedFile, UseInterceptors } from '@nestjs/common';
+import { Body, Controller, Get, Header, HttpCode, Param, ParseIntPipe, Post, Query, Res, StreamableFile, UploadedFile, UseFilters, UseInterceptors } from '@nestjs/common';
 import { FileInterceptor } from '@nestjs/platform-express';
 import type { Response } from 'express';
 import { ApiBearerAuth, ApiBody, ApiConflictResponse, ApiConsumes, ApiCreatedResponse, ApiOkResponse, ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
@@ -7,6 +7,7 @@ import { Roles } from '../common/decorators/roles.decorator';
 import { ROLES } from '../users/user.entity';
 import { CloseLotDto, CreateLotDto, LotDetailDto, LotDto, LotImportResultDto, LotQueryDto, LotUnitDto, ReleaseCheckDto, ReleaseLotDto } from './dto/lot.dto';
 import { MAX_LOT_FILE_BYTES } from './lot-csv';
+import { LotFileTooLargeFilter } from './lot-file-too-large.filter';
 import { LotImportService, type UploadedLotFile } from './lot-import.service';
 import { LotReleaseService } from './lot-release.service';
 import { LotsService } from './lots.service';
@@ -43,8 +44,8 @@ export class LotsController {
   @Post('import')
   @HttpCode(201)
   @Roles('engineer', 'quality', 'admin')
-  // a file over the bound is cut by multer at +1 byte, so the service sees it as too large and refuses it in words
-  @UseInterceptors(FileInterceptor('file', { limits: { fileSize: MAX_LOT_FILE_BYTES + 1, files: 1 } }))
+  @UseInterceptors(FileInterceptor('file', { limits: { fileSize: MAX_LOT_FILE_BYTES, files: 1 } }))
+  @UseFilters(LotFileTooLargeFilter)
   @ApiConsumes('multipart/form-data')
   @ApiBody({ schema: { type: 'object', properties: { file: { type: 'string', format: 'binary' } } } })
   @ApiOperation({ summary: 'Open lots from a CSV lot file (multipart field "file"); a file with any bad row imports nothing and lists every problem' })
