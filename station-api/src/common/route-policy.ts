@@ -51,6 +51,14 @@ export const ROUTE_POLICY: Readonly<Record<string, RoutePolicy>> = {
   'GET /api/lots/:id': { allow: ALL },
   'POST /api/lots': { allow: ['engineer', 'quality', 'admin'] },
   'GET /api/units/:serial': { allow: ALL },
+  // lots (issue 12, H4): creation by file, export, units, release with its certificate, close
+  'GET /api/lots/export.csv': { allow: ['engineer', 'quality', 'admin'] },
+  'POST /api/lots/import': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/lots/:id/units': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/lots/:id/release-check': { allow: ['engineer', 'quality', 'admin'] },
+  'POST /api/lots/:id/release': { allow: ['quality', 'admin'] },
+  'POST /api/lots/:id/close': { allow: ['quality', 'admin'] },
+  'GET /api/lots/:id/certificate.pdf': { allow: ['engineer', 'quality', 'admin'] },
   // plans: admin may do everything engineers may
   'GET /api/plans': { allow: ALL },
   'POST /api/plans/validate': { allow: ENGINEERING },

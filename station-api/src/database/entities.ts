@@ -1,6 +1,7 @@
 import { AuditEvent } from '../audit/audit-event.entity';
 import { Fixture } from '../fixtures/fixture.entity';
 import { Lot } from '../lots/lot.entity';
+import { LotCertificate } from '../lots/lot-certificate.entity';
 import { PlanVersion } from '../plans/plan-version.entity';
 import { TestPlan } from '../plans/test-plan.entity';
 import { Product } from '../products/product.entity';
@@ -23,4 +24,6 @@ export const ENTITIES = [
   TestRun,
   Measurement,
   AuditEvent,
+  // lots (issue 12): the certificate of conformance issued by a release
+  LotCertificate,
 ];

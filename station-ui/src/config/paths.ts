@@ -129,4 +129,15 @@ export const apiPaths = {
   planVersionExport: (id: number) => `/plan-versions/${id}/export`,
   planCompare: (from: number, to: number) => `/plan-versions/${from}/compare/${to}`,
   planWhatIf: (id: number) => `/plan-versions/${id}/what-if`,
+  // lots (issue 12, H4): one lot, its units, release and its certificate, close, the lot file in and out
+  lot: (id: number) => `/lots/${id}`,
+  lotUnits: (id: number) => `/lots/${id}/units`,
+  lotReleaseCheck: (id: number) => `/lots/${id}/release-check`,
+  lotRelease: (id: number) => `/lots/${id}/release`,
+  lotClose: (id: number) => `/lots/${id}/close`,
+  lotCertificate: (id: number) => `/lots/${id}/certificate.pdf`,
+  lotsImport: '/lots/import',
+  lotsExport: '/lots/export.csv',
+  /** the products a new lot can be opened for */
+  products: '/products',
 } as const;

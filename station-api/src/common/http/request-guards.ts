@@ -40,7 +40,11 @@ export function refuseControlCharactersInUrl(req: Request, res: Response, next: 
 }
 
 /** The routes that take a file upload (multipart/form-data) instead of JSON: method and path as sent. */
-const MULTIPART_ROUTES = new Set(['POST /api/plans/import']);
+const MULTIPART_ROUTES = new Set([
+  'POST /api/plans/import',
+  // lots (issue 12, H4): a CSV lot file
+  'POST /api/lots/import',
+]);
 
 /**
  * Bodies sent to the API must be JSON. A text/plain or XML PATCH used to answer 200 and change nothing;

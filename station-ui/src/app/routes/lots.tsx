@@ -1,5 +1,6 @@
-import { PlaceholderPage } from '@/components/layout/placeholder-page';
+import { LotsScreen } from '@/features/lots/components/lots-screen';
 
+/** Lots: creation by form and CSV, units, release with the certificate of conformance (src/features/lots/). */
 export default function LotsRoute() {
-  return <PlaceholderPage title="Lots" purpose="Production lots and the units in each." />;
+  return <LotsScreen />;
 }
