@@ -9,6 +9,11 @@ import { TestRun } from '../runs/test-run.entity';
 import { Station } from '../stations/station.entity';
 import { Unit } from '../units/unit.entity';
 import { User } from '../users/user.entity';
+// holds and alerts (issue 12)
+import { HoldAlert } from '../holds/hold-alert.entity';
+import { HoldRule } from '../holds/hold-rule.entity';
+import { Hold } from '../holds/hold.entity';
+import { OutboxMessage } from '../mail/outbox-message.entity';
 
 /** Every entity, listed explicitly so the CLI, Nest and the tests see the same set. */
 export const ENTITIES = [
@@ -23,4 +28,9 @@ export const ENTITIES = [
   TestRun,
   Measurement,
   AuditEvent,
+  // holds and alerts (issue 12)
+  HoldRule,
+  Hold,
+  HoldAlert,
+  OutboxMessage,
 ];
