@@ -129,4 +129,13 @@ export const apiPaths = {
   planVersionExport: (id: number) => `/plan-versions/${id}/export`,
   planCompare: (from: number, to: number) => `/plan-versions/${from}/compare/${to}`,
   planWhatIf: (id: number) => `/plan-versions/${id}/what-if`,
+  // holds and alerts (issue 12, features/holds): rules per product, holds and lifting, alerts, the e-mail outbox
+  products: '/products',
+  holdRules: '/hold-rules',
+  holdRule: (id: number) => `/hold-rules/${id}`,
+  holdRuleQuantities: '/hold-rules/quantities',
+  holds: '/holds',
+  holdLift: (id: number) => `/holds/${id}/lift`,
+  holdAlerts: '/hold-alerts',
+  outbox: '/outbox',
 } as const;
