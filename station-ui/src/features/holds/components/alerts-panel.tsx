@@ -29,11 +29,11 @@ export function AlertsPanel() {
               <Table.Td className={classes.mono}>{whenText(a.at)}</Table.Td>
               <Table.Td>
                 {a.kind === 'hold' ? (
-                  <Badge color="signalAmber" variant="light">
+                  <Badge color="signalAmber" variant="light" classNames={{ label: classes.badgeLabel }}>
                     Lot held
                   </Badge>
                 ) : (
-                  <Badge color="signalRed" variant="light">
+                  <Badge color="signalRed" variant="light" classNames={{ label: classes.badgeLabel }}>
                     Rules not checked
                   </Badge>
                 )}

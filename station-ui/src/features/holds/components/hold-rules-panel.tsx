@@ -1,4 +1,4 @@
-import { Badge, Button, Group, Select, Skeleton, Table, Text } from '@mantine/core';
+import { Button, Group, Select, Skeleton, Table, Text } from '@mantine/core';
 import { notifications } from '@mantine/notifications';
 import { useState } from 'react';
 import { isApiError } from '@/lib/api-client';
@@ -71,14 +71,15 @@ export function HoldRulesPanel() {
                     {r.createdByName ? ` by ${r.createdByName}` : ''}
                   </Table.Td>
                   <Table.Td>
+                    {/* plain words, not a badge: a badge cuts its label short in a narrow column */}
                     {r.active ? (
-                      <Badge color="signalGreen" variant="light">
+                      <Text size="sm" fw={700} c="signalGreen.8" className={classes.nowrap}>
                         Watching
-                      </Badge>
+                      </Text>
                     ) : (
-                      <Badge color="slate" variant="light">
+                      <Text size="sm" c="dimmed">
                         Switched off {whenText(r.switchedOffAt)}
-                      </Badge>
+                      </Text>
                     )}
                   </Table.Td>
                   <Table.Td>

@@ -19,7 +19,7 @@ export function OutboxPanel() {
             <Table.Th>Subject</Table.Th>
             <Table.Th>Status</Table.Th>
             <Table.Th>Tries</Table.Th>
-            <Table.Th>Sent</Table.Th>
+            <Table.Th>Delivered</Table.Th>
           </Table.Tr>
         </Table.Thead>
         <Table.Tbody>
@@ -31,7 +31,7 @@ export function OutboxPanel() {
                 <Table.Td className={classes.wrapText}>{m.to}</Table.Td>
                 <Table.Td className={classes.wrapText}>{m.subject}</Table.Td>
                 <Table.Td>
-                  <Badge color={look.color} variant="light">
+                  <Badge color={look.color} variant="light" classNames={{ label: classes.badgeLabel }}>
                     {look.label}
                   </Badge>
                   {m.lastError && (
