@@ -37,7 +37,15 @@ export class MailService implements OnApplicationBootstrap, BeforeApplicationShu
 
   async onApplicationBootstrap(): Promise<void> {
     if (this.settings.capture) {
-      const port = await this.capture.start(this.settings.capturePort);
+      let port: number;
+      try {
+        port = await this.capture.start(this.settings.capturePort);
+      } catch (err) {
+        // a demo must not fail to start because another program holds the port: any free port does as well
+        if ((err as NodeJS.ErrnoException).code !== 'EADDRINUSE' || this.settings.capturePort === 0) throw err;
+        port = await this.capture.start(0);
+        this.logger.warn(`Port ${this.settings.capturePort} is taken (MAIL_CAPTURE_PORT); the local mail capture uses port ${port} instead`);
+      }
       this.logger.log(`Local mail capture listening on 127.0.0.1:${port}; alerts are kept there, none leave this computer`);
       this.transporter = this.transport('127.0.0.1', port);
     } else if (this.settings.smtpHost) {
