@@ -23,6 +23,7 @@ import { SimulationModule } from './simulation/simulation.module';
 import { YieldModule } from './yield/yield.module';
 import { WhatIfModule } from './what-if/what-if.module';
 import { DatabaseMaintenanceModule } from './database/maintenance/database-maintenance.module';
+import { HoldsModule } from './holds/holds.module';
 
 function staticUi(): DynamicModule[] {
   const dist = loadEnv().UI_DIST;
@@ -49,6 +50,7 @@ function staticUi(): DynamicModule[] {
     YieldModule,
     WhatIfModule,
     DatabaseMaintenanceModule,
+    HoldsModule,
     ...staticUi(),
   ],
 })

@@ -100,6 +100,15 @@ export const ROUTE_POLICY: Readonly<Record<string, RoutePolicy>> = {
   'GET /api/yield/capability': { allow: ['engineer', 'quality', 'admin'] },
   'GET /api/yield/control-chart': { allow: ['engineer', 'quality', 'admin'] },
   'GET /api/yield/measurements.csv': { allow: ['engineer', 'quality', 'admin'] },
+  // holds and alerts (issue 12): rules, holds, alerts and outbox for engineers and quality; lifting for quality only
+  'GET /api/hold-rules': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/hold-rules/quantities': { allow: ['engineer', 'quality', 'admin'] },
+  'POST /api/hold-rules': { allow: ['engineer', 'quality', 'admin'] },
+  'PATCH /api/hold-rules/:id': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/holds': { allow: ['engineer', 'quality', 'admin'] },
+  'POST /api/holds/:id/lift': { allow: ['quality', 'admin'] },
+  'GET /api/hold-alerts': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/outbox': { allow: ['engineer', 'quality', 'admin'] },
 };
 
 /** Live events (socket.io): who may join which room. Rights are checked again on every join. */

@@ -10,6 +10,11 @@ import { TestRun } from '../runs/test-run.entity';
 import { Station } from '../stations/station.entity';
 import { Unit } from '../units/unit.entity';
 import { User } from '../users/user.entity';
+// holds and alerts (issue 12)
+import { HoldAlert } from '../holds/hold-alert.entity';
+import { HoldRule } from '../holds/hold-rule.entity';
+import { Hold } from '../holds/hold.entity';
+import { OutboxMessage } from '../mail/outbox-message.entity';
 
 /** Every entity, listed explicitly so the CLI, Nest and the tests see the same set. */
 export const ENTITIES = [
@@ -26,4 +31,9 @@ export const ENTITIES = [
   AuditEvent,
   // lots (issue 12): the certificate of conformance issued by a release
   LotCertificate,
+  // holds and alerts (issue 12)
+  HoldRule,
+  Hold,
+  HoldAlert,
+  OutboxMessage,
 ];

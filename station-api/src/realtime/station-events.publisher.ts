@@ -48,6 +48,21 @@ export class StationEventsPublisher {
     return [...this.lastState.values()];
   }
 
+  /**
+   * Calls `listener` after every event of one name (in-process, after the sockets were sent to); returns the
+   * function that stops it. A listener that throws, or whose promise rejects, is logged and never disturbs the
+   * producer: hold-rule evaluation after `run:finished` hangs here, off the run's path.
+   */
+  onEmitted<K extends StationEventName>(name: K, listener: (payload: StationEventMap[K]) => void | Promise<void>): () => void {
+    return this.subscribe((emitted, payload) => {
+      if ((emitted as StationEventName) !== name) return;
+      const result = listener(payload as unknown as StationEventMap[K]);
+      if (result && typeof (result as Promise<void>).catch === 'function') {
+        (result as Promise<void>).catch((err: Error) => this.logger.warn(`A ${name} listener failed: ${err.message}`));
+      }
+    });
+  }
+
   /** Observes every event in-process; returns the function that stops observing. */
   subscribe(listener: EventListener): () => void {
     this.listeners.add(listener);

@@ -140,4 +140,13 @@ export const apiPaths = {
   lotsExport: '/lots/export.csv',
   /** the products a new lot can be opened for */
   products: '/products',
+  // holds and alerts (issue 12, features/holds): rules per product, holds and lifting, alerts, the e-mail outbox
+  products: '/products',
+  holdRules: '/hold-rules',
+  holdRule: (id: number) => `/hold-rules/${id}`,
+  holdRuleQuantities: '/hold-rules/quantities',
+  holds: '/holds',
+  holdLift: (id: number) => `/holds/${id}/lift`,
+  holdAlerts: '/hold-alerts',
+  outbox: '/outbox',
 } as const;

@@ -1,5 +1,6 @@
-import { PlaceholderPage } from '@/components/layout/placeholder-page';
+import { HoldsScreen } from '@/features/holds/components/holds-screen';
 
+/** Holds and alerts: lots on hold, hold rules, alerts and the outbox (src/features/holds/). */
 export default function HoldsRoute() {
-  return <PlaceholderPage title="Holds and alerts" purpose="Hold rules, lots on hold and the e-mail outbox." />;
+  return <HoldsScreen />;
 }
