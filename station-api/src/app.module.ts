@@ -23,6 +23,8 @@ import { SimulationModule } from './simulation/simulation.module';
 import { YieldModule } from './yield/yield.module';
 import { WhatIfModule } from './what-if/what-if.module';
 import { DatabaseMaintenanceModule } from './database/maintenance/database-maintenance.module';
+// H1: limits from characterization data (issue 10)
+import { CharacterizationModule } from './characterization/characterization.module';
 
 function staticUi(): DynamicModule[] {
   const dist = loadEnv().UI_DIST;
@@ -49,6 +51,7 @@ function staticUi(): DynamicModule[] {
     YieldModule,
     WhatIfModule,
     DatabaseMaintenanceModule,
+    CharacterizationModule, // H1
     ...staticUi(),
   ],
 })

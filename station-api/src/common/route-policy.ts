@@ -92,6 +92,12 @@ export const ROUTE_POLICY: Readonly<Record<string, RoutePolicy>> = {
   'GET /api/yield/capability': { allow: ['engineer', 'quality', 'admin'] },
   'GET /api/yield/control-chart': { allow: ['engineer', 'quality', 'admin'] },
   'GET /api/yield/measurements.csv': { allow: ['engineer', 'quality', 'admin'] },
+  // H1: limits from characterization data (issue 10): engineers upload and accept, quality may read
+  'POST /api/characterization/data-sets': { allow: ENGINEERING },
+  'GET /api/characterization/data-sets': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/characterization/data-sets/:id': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/characterization/data-sets/:id/analysis': { allow: ['engineer', 'quality', 'admin'] },
+  'POST /api/characterization/data-sets/:id/accept': { allow: ENGINEERING },
 };
 
 /** Live events (socket.io): who may join which room. Rights are checked again on every join. */

@@ -9,6 +9,8 @@ import { TestRun } from '../runs/test-run.entity';
 import { Station } from '../stations/station.entity';
 import { Unit } from '../units/unit.entity';
 import { User } from '../users/user.entity';
+// H1: limits from characterization data (issue 10)
+import { CharacterizationDataSet } from '../characterization/characterization-data-set.entity';
 
 /** Every entity, listed explicitly so the CLI, Nest and the tests see the same set. */
 export const ENTITIES = [
@@ -23,4 +25,5 @@ export const ENTITIES = [
   TestRun,
   Measurement,
   AuditEvent,
+  CharacterizationDataSet, // H1
 ];

@@ -40,7 +40,11 @@ export function refuseControlCharactersInUrl(req: Request, res: Response, next: 
 }
 
 /** The routes that take a file upload (multipart/form-data) instead of JSON: method and path as sent. */
-const MULTIPART_ROUTES = new Set(['POST /api/plans/import']);
+const MULTIPART_ROUTES = new Set([
+  'POST /api/plans/import',
+  // H1: characterization data (CSV upload)
+  'POST /api/characterization/data-sets',
+]);
 
 /**
  * Bodies sent to the API must be JSON. A text/plain or XML PATCH used to answer 200 and change nothing;
