@@ -129,4 +129,10 @@ export const apiPaths = {
   planVersionExport: (id: number) => `/plan-versions/${id}/export`,
   planCompare: (from: number, to: number) => `/plan-versions/${from}/compare/${to}`,
   planWhatIf: (id: number) => `/plan-versions/${id}/what-if`,
+  // H1: limits from characterization data (features/characterization): upload (multipart) and list, one data set,
+  // the figures of one quantity, accepting proposed limits into a draft
+  characterizationDataSets: '/characterization/data-sets',
+  characterizationDataSet: (id: number) => `/characterization/data-sets/${id}`,
+  characterizationAnalysis: (id: number) => `/characterization/data-sets/${id}/analysis`,
+  characterizationAccept: (id: number) => `/characterization/data-sets/${id}/accept`,
 } as const;
