@@ -85,7 +85,7 @@ export function FiguresPanel({ analysis: a }: { analysis: Analysis }) {
             <Table.Th>Index</Table.Th>
             <Table.Th>Value</Table.Th>
             <Table.Th>95 % interval</Table.Th>
-            <Table.Th>σ and interval</Table.Th>
+            <Table.Th>σ used, interval</Table.Th>
           </Table.Tr>
         </Table.Thead>
         <Table.Tbody>

@@ -27,6 +27,7 @@ export function UploadPanel({ onUploaded }: { onUploaded: (d: DataSetSummary) =>
         onSuccess: (d) => {
           setFile(null);
           setName('');
+          setProduct(null);
           onUploaded(d);
         },
       },
