@@ -24,6 +24,8 @@ import { YieldModule } from './yield/yield.module';
 import { WhatIfModule } from './what-if/what-if.module';
 import { DatabaseMaintenanceModule } from './database/maintenance/database-maintenance.module';
 import { HoldsModule } from './holds/holds.module';
+// H1: limits from characterization data (issue 10)
+import { CharacterizationModule } from './characterization/characterization.module';
 
 function staticUi(): DynamicModule[] {
   const dist = loadEnv().UI_DIST;
@@ -51,6 +53,7 @@ function staticUi(): DynamicModule[] {
     WhatIfModule,
     DatabaseMaintenanceModule,
     HoldsModule,
+    CharacterizationModule, // H1
     ...staticUi(),
   ],
 })

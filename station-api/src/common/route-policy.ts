@@ -109,6 +109,12 @@ export const ROUTE_POLICY: Readonly<Record<string, RoutePolicy>> = {
   'POST /api/holds/:id/lift': { allow: ['quality', 'admin'] },
   'GET /api/hold-alerts': { allow: ['engineer', 'quality', 'admin'] },
   'GET /api/outbox': { allow: ['engineer', 'quality', 'admin'] },
+  // H1: limits from characterization data (issue 10): engineers upload and accept, quality may read
+  'POST /api/characterization/data-sets': { allow: ENGINEERING },
+  'GET /api/characterization/data-sets': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/characterization/data-sets/:id': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/characterization/data-sets/:id/analysis': { allow: ['engineer', 'quality', 'admin'] },
+  'POST /api/characterization/data-sets/:id/accept': { allow: ENGINEERING },
 };
 
 /** Live events (socket.io): who may join which room. Rights are checked again on every join. */

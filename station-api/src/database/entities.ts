@@ -15,6 +15,8 @@ import { HoldAlert } from '../holds/hold-alert.entity';
 import { HoldRule } from '../holds/hold-rule.entity';
 import { Hold } from '../holds/hold.entity';
 import { OutboxMessage } from '../mail/outbox-message.entity';
+// H1: limits from characterization data (issue 10)
+import { CharacterizationDataSet } from '../characterization/characterization-data-set.entity';
 
 /** Every entity, listed explicitly so the CLI, Nest and the tests see the same set. */
 export const ENTITIES = [
@@ -36,4 +38,5 @@ export const ENTITIES = [
   Hold,
   HoldAlert,
   OutboxMessage,
+  CharacterizationDataSet, // H1
 ];

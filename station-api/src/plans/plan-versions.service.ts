@@ -5,12 +5,26 @@ import { AuditService } from '../audit/audit.service';
 import type { AuthUser } from '../common/decorators/current-user.decorator';
 import { User } from '../users/user.entity';
 import type { PlanVersionDto } from './dto/plan.dto';
+import type { DecisionRule, LimitSpec } from './plan-definition';
+import { parseLimitKey } from './step-kinds/limit-keys';
+import { implausibility, shown } from './step-kinds/ranges';
+import { STEP_KIND_DEFS } from './step-kinds/registry';
 import type { ChangeReasonDto, PlanComparisonDto, UpdateDraftDto } from './dto/plan-lifecycle.dto';
 import { comparePlans } from './plan-compare';
 import { stepsChecksum, validatePlanSteps } from './plan-file';
 import { PlanVersion, PlanVersionState } from './plan-version.entity';
 import { planProduct, PlansService, stepsRefusal, toPlanVersionDto, versionStage } from './plans.service';
 import { TestPlan } from './test-plan.entity';
+
+/** One limit of one step of a draft, with its new bounds (and optionally uncertainty and rule). */
+export interface LimitChange {
+  stepKey: string;
+  limitKey: string;
+  low?: number;
+  high?: number;
+  uncertainty?: number;
+  rule?: DecisionRule;
+}
 
 const POPULATE = ['plan', 'plan.product', 'createdBy', 'releasedBy', 'submittedBy', 'retiredBy'] as const;
 
@@ -54,7 +68,7 @@ export class PlanVersionsService {
   }
 
   /** Edits a draft; an edit withdraws a submission, so the approver always reviews what will be released. */
-  async update(id: number, dto: UpdateDraftDto, actor: AuthUser): Promise<PlanVersionDto> {
+  async update(id: number, dto: UpdateDraftDto, actor: AuthUser, options: { auditReason?: string } = {}): Promise<PlanVersionDto> {
     const v = await this.load(id);
     if (v.state !== PlanVersionState.Draft) throw notDraft(v, 'be edited');
     if (dto.steps === undefined && dto.stopAtFirstFailure === undefined && dto.maxAttempts === undefined && dto.reason === undefined) {
@@ -81,7 +95,7 @@ export class PlanVersionsService {
         action: 'plan_version.edited',
         entityType: 'plan_version',
         entityId: v.id,
-        reason: dto.reason ?? (wasSubmitted ? 'draft edited after submission; submission withdrawn' : undefined),
+        reason: dto.reason ?? options.auditReason ?? (wasSubmitted ? 'draft edited after submission; submission withdrawn' : undefined),
         before,
         after: { ...auditView(v), changes: [...diff.changed.flatMap((c) => c.changes.map((x) => ({ step: c.key, ...x }))), ...diff.settings], added: diff.added.map((a) => a.key), removed: diff.removed.map((r) => r.key), submissionWithdrawn: wasSubmitted },
       },
@@ -89,6 +103,42 @@ export class PlanVersionsService {
     );
     await this.em.flush();
     return this.answer(v);
+  }
+
+  /**
+   * Sets the bounds of one limit of a draft (limits derived from characterization data). The new bounds must lie
+   * inside the quantity's physical range; then the steps are checked and audited exactly as an editor's save
+   * (`plan_version.edited`, with `reason`), and the version's own reason stays. 409 for a version that is not a draft.
+   * The limit becomes exactly [low, high]: a bound left out is removed (a one-sided limit).
+   */
+  async setLimit(id: number, change: LimitChange, reason: string, actor: AuthUser): Promise<{ version: PlanVersionDto; before: LimitSpec; after: LimitSpec }> {
+    const v = await this.load(id);
+    if (v.state !== PlanVersionState.Draft) throw notDraft(v, 'be edited');
+    const refuse = (field: string, message: string) => new BadRequestException({ message, details: [{ field, problems: [message] }] });
+    if (change.low === undefined && change.high === undefined) throw refuse('low', 'Give a low limit, a high limit or both.');
+    const steps = structuredClone(v.steps);
+    const step = steps.find((s) => s.key === change.stepKey);
+    if (!step) throw refuse('stepKey', `Version ${v.version} of ${v.plan.code} has no step "${change.stepKey}"; its steps are ${steps.map((s) => s.key).join(', ')}.`);
+    const limit = step.limits.find((l) => l.key === change.limitKey);
+    if (!limit) throw refuse('limitKey', `Step "${step.key}" has no limit "${change.limitKey}"; its limits are ${step.limits.map((l) => l.key).join(', ')}.`);
+    const def = STEP_KIND_DEFS[step.kind].quantities.find((q) => q.base === parseLimitKey(limit.key).base);
+    const product = planProduct(v.plan.product);
+    for (const [field, x] of [['low', change.low], ['high', change.high]] as const) {
+      if (x === undefined || !def) continue;
+      if (implausibility(def, limit.key, x, product, step.params)) {
+        throw refuse(field, `${field} ${shown(x)} ${def.unit} lies outside the physical range of ${limit.key} (${def.range.text}: ${def.range.law}).`);
+      }
+    }
+    const before = { ...limit };
+    delete limit.low;
+    delete limit.high;
+    if (change.low !== undefined) limit.low = change.low;
+    if (change.high !== undefined) limit.high = change.high;
+    if (change.uncertainty !== undefined) limit.uncertainty = change.uncertainty;
+    if (change.rule !== undefined) limit.rule = change.rule;
+    const version = await this.update(id, { steps }, actor, { auditReason: reason });
+    const after = version.steps.find((s) => s.key === step.key)!.limits.find((l) => l.key === limit.key)!;
+    return { version, before, after };
   }
 
   /** Puts a draft forward for release with the change reason the approver will read. */

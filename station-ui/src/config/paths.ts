@@ -149,4 +149,10 @@ export const apiPaths = {
   holdLift: (id: number) => `/holds/${id}/lift`,
   holdAlerts: '/hold-alerts',
   outbox: '/outbox',
+  // H1: limits from characterization data (features/characterization): upload (multipart) and list, one data set,
+  // the figures of one quantity, accepting proposed limits into a draft
+  characterizationDataSets: '/characterization/data-sets',
+  characterizationDataSet: (id: number) => `/characterization/data-sets/${id}`,
+  characterizationAnalysis: (id: number) => `/characterization/data-sets/${id}/analysis`,
+  characterizationAccept: (id: number) => `/characterization/data-sets/${id}/accept`,
 } as const;

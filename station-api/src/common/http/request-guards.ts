@@ -44,6 +44,8 @@ const MULTIPART_ROUTES = new Set([
   'POST /api/plans/import',
   // lots (issue 12, H4): a CSV lot file
   'POST /api/lots/import',
+  // H1: characterization data (CSV upload)
+  'POST /api/characterization/data-sets',
 ]);
 
 /**

@@ -1,5 +1,7 @@
-import { PlaceholderPage } from '@/components/layout/placeholder-page';
+// chart styles only on this lazily loaded page, so the operator screen does not carry them
+import '@mantine/charts/styles.css';
+import { CharacterizationScreen } from '@/features/characterization/components/characterization-screen';
 
 export default function CharacterizationRoute() {
-  return <PlaceholderPage title="Limits from data" purpose="Proposed limits from a pilot build's measurements." />;
+  return <CharacterizationScreen />;
 }
