@@ -1,4 +1,5 @@
 import { AuditEvent } from '../audit/audit-event.entity';
+import { CalibrationRecord } from '../fixtures/calibration/calibration-record.entity';
 import { Fixture } from '../fixtures/fixture.entity';
 import { Lot } from '../lots/lot.entity';
 import { PlanVersion } from '../plans/plan-version.entity';
@@ -23,4 +24,6 @@ export const ENTITIES = [
   TestRun,
   Measurement,
   AuditEvent,
+  // fixtures and calibration (issue 10, H2)
+  CalibrationRecord,
 ];
