@@ -129,4 +129,11 @@ export const apiPaths = {
   planVersionExport: (id: number) => `/plan-versions/${id}/export`,
   planCompare: (from: number, to: number) => `/plan-versions/${from}/compare/${to}`,
   planWhatIf: (id: number) => `/plan-versions/${id}/what-if`,
+  // fixtures and calibration (issue 10, H2): records with their certificate PDFs, the contact reset
+  fixtures: '/fixtures',
+  fixture: (id: number) => `/fixtures/${id}`,
+  fixtureCalibrations: (id: number) => `/fixtures/${id}/calibrations`,
+  fixtureCertificate: (fixtureId: number, calibrationId: number) => `/fixtures/${fixtureId}/calibrations/${calibrationId}/certificate`,
+  fixtureContactsReplaced: (id: number) => `/fixtures/${id}/contacts-replaced`,
+  calibrationQuantities: '/fixtures/calibration-quantities',
 } as const;
