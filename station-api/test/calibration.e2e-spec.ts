@@ -150,7 +150,8 @@ describe('fixtures and calibration', () => {
     const r2 = await h.run(eol1, second);
     const vout2 = (await h.detail(r2.runId)).measurements.find((m: MeasurementView) => m.quantity === 'voutV');
     // ILAC-G8:09/2019 §4.2.2 (binary statement with guard band w = U): acceptance limits TL − U and TL + U;
-    // JCGM 106:2012 §8.3.2, guarded acceptance: 4.875 + 0.02 = 4.895 V and 5.125 − 0.02 = 5.105 V
+    // JCGM 106:2012 §8, guarded acceptance (clause number from memory, unverified): 4.875 + 0.02 = 4.895 V and
+    // 5.125 − 0.02 = 5.105 V
     expect(vout2).toMatchObject({ lowLimit: 4.875, highLimit: 5.125, uncertainty: 0.02 });
     expect(vout2.guardedLow).toBeCloseTo(4.895, 12);
     expect(vout2.guardedHigh).toBeCloseTo(5.105, 12);

@@ -77,7 +77,7 @@ describe('uncertaintyFor with a calibration (docs/calibration.md)', () => {
 
   it('moves the guarded acceptance limits by the calibrated U', () => {
     // ILAC-G8:09/2019 §4.2.2 (binary statement with guard band, w = U): AL = TL − U above, TL + U below;
-    // JCGM 106:2012 §8.3.2 guarded acceptance: 4.9 + 0.02 = 4.92 V, 5.1 − 0.02 = 5.08 V
+    // JCGM 106:2012 §8 guarded acceptance (clause number from memory, unverified): 4.9 + 0.02 = 4.92 V, 5.1 − 0.02 = 5.08 V
     const t = new Date('2026-12-02T08:00:00Z');
     const row = judgeLimit(2, { key: 'vout-load', name: 'Output voltage' }, vout, { value: 5.09, raw: {} }, { voltageUncertaintyV: 0.005, calibrated: { voutV: 0.02 } }, t, t);
     expect(row.uncertainty).toBe(0.02);
