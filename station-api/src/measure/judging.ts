@@ -1,5 +1,4 @@
 import type { LimitSpec, PlanStep } from '../plans/plan-definition';
-import { parseLimitKey } from '../plans/step-kinds/limit-keys';
 import { ConformityStatement, guardedLimits, judge, Verdict } from './acceptance';
 
 /** What judging needs of a quantity a step produced (the step-kind registry's `Quantity` fits it). */
@@ -116,7 +115,8 @@ export interface UncertaintySource {
  * 4. else 0.
  */
 export function uncertaintyFor(limit: LimitSpec, fixture: UncertaintySource): number {
-  const stated = fixture.calibrated?.[parseLimitKey(limit.key).base];
+  // the quantity is the key before any `@<load>` (plans/step-kinds/limit-keys.ts; measure/ stays free of the registry)
+  const stated = fixture.calibrated?.[limit.key.split('@')[0]];
   if (typeof stated === 'number' && Number.isFinite(stated) && stated >= 0) return stated;
   if (limit.uncertainty !== undefined && limit.uncertainty !== null) return limit.uncertainty;
   if (limit.unit === 'V') return fixture.voltageUncertaintyV;
