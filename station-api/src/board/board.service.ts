@@ -34,6 +34,7 @@ export class BoardService {
         station: { id: s.id, code: s.code, name: s.name },
         state: status.state,
         reasons: status.reasons,
+        warnings: status.warnings,
         fixture: s.fixture ? { code: s.fixture.code, calibrationDueAt: s.fixture.calibrationDueAt.toISOString() } : null,
         activeLot: s.activeLot ? { id: s.activeLot.id, code: s.activeLot.code, partNumber: s.activeLot.product.partNumber } : null,
         currentRun: status.currentRunId ? await this.currentRun(em, s.id, status.currentRunId) : null,

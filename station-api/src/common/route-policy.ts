@@ -42,6 +42,10 @@ export const ROUTE_POLICY: Readonly<Record<string, RoutePolicy>> = {
   'PATCH /api/fixtures/:id': { allow: ENGINEERING },
   'POST /api/fixtures/:id/calibrations': { allow: ENGINEERING },
   'POST /api/fixtures/:id/contacts-replaced': { allow: ENGINEERING },
+  // fixtures and calibration (issue 10, H2): records are read by engineering and quality, written by engineering
+  'GET /api/fixtures/calibration-quantities': { allow: ALL },
+  'GET /api/fixtures/:id/calibrations': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/fixtures/:id/calibrations/:calibrationId/certificate': { allow: ['engineer', 'quality', 'admin'] },
   'GET /api/stations': { allow: ALL },
   'GET /api/stations/:id': { allow: ALL },
   'POST /api/stations': { allow: ENGINEERING },

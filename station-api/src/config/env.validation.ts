@@ -95,6 +95,10 @@ export class EnvironmentVariables {
     message: 'SHIFT_STARTS must be times of day written HH:MM (00:00 to 23:59), separated by commas, each listed once (e.g. 06:00,14:00,22:00)',
   })
   SHIFT_STARTS: string = '06:00,14:00,22:00';
+
+  /** Days before a fixture's calibration due date from which the fixtures page, the board and the station warn (0: no warning) */
+  @IsOptional() @Type(() => Number) @IsInt({ message: 'CALIBRATION_WARN_DAYS must be a whole number of days, e.g. 30' }) @Min(0) @Max(365)
+  CALIBRATION_WARN_DAYS: number = 30;
 }
 
 export function validateEnv(raw: Record<string, unknown>): EnvironmentVariables {

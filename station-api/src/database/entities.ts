@@ -1,4 +1,5 @@
 import { AuditEvent } from '../audit/audit-event.entity';
+import { CalibrationRecord } from '../fixtures/calibration/calibration-record.entity';
 import { Fixture } from '../fixtures/fixture.entity';
 import { Lot } from '../lots/lot.entity';
 import { LotCertificate } from '../lots/lot-certificate.entity';
@@ -39,4 +40,6 @@ export const ENTITIES = [
   HoldAlert,
   OutboxMessage,
   CharacterizationDataSet, // H1
+  // fixtures and calibration (issue 10, H2)
+  CalibrationRecord,
 ];

@@ -60,3 +60,30 @@ describe('uncertaintyFor', () => {
     expect(uncertaintyFor({ ...limit, key: 'efficiencyPct@1.5', unit: '%' }, fixture)).toBe(0);
   });
 });
+
+describe('uncertaintyFor with a calibration (docs/calibration.md)', () => {
+  const vout = { key: 'voutV@1.5', name: 'Output voltage at 1.5 A', unit: 'V', low: 4.9, high: 5.1, uncertainty: 0.01, rule: 'guarded' as const };
+
+  it("uses the certificate's U for the limit's quantity in place of the plan's planning value", () => {
+    // self-constructed example: the certificate states 0.02 V for voutV; every load's voutV limit takes it
+    const source = { voltageUncertaintyV: 0.005, calibrated: { voutV: 0.02 } };
+    expect(uncertaintyFor(vout, source)).toBe(0.02);
+    expect(uncertaintyFor({ ...vout, key: 'voutV' }, source)).toBe(0.02);
+    // a quantity the certificate does not state keeps the plan's value, then the fixture's voltage U
+    expect(uncertaintyFor({ ...vout, key: 'rippleMvPp', unit: 'mV', uncertainty: 1 }, source)).toBe(1);
+    expect(uncertaintyFor({ ...vout, key: 'rippleMvPp', unit: 'mV', uncertainty: undefined }, source)).toBe(5);
+    expect(uncertaintyFor(vout, { voltageUncertaintyV: 0.005, calibrated: {} })).toBe(0.01);
+  });
+
+  it('moves the guarded acceptance limits by the calibrated U', () => {
+    // ILAC-G8:09/2019 §4.2.2 (binary statement with guard band, w = U): AL = TL − U above, TL + U below;
+    // JCGM 106:2012 §8 guarded acceptance (clause number from memory, unverified): 4.9 + 0.02 = 4.92 V, 5.1 − 0.02 = 5.08 V
+    const t = new Date('2026-12-02T08:00:00Z');
+    const row = judgeLimit(2, { key: 'vout-load', name: 'Output voltage' }, vout, { value: 5.09, raw: {} }, { voltageUncertaintyV: 0.005, calibrated: { voutV: 0.02 } }, t, t);
+    expect(row.uncertainty).toBe(0.02);
+    expect(row.guardedLow).toBeCloseTo(4.92, 12);
+    expect(row.guardedHigh).toBeCloseTo(5.08, 12);
+    // 5.09 V is within tolerance but in the guard band: guard_fail, conditional pass (§4.2.3)
+    expect(row).toMatchObject({ verdict: 'guard_fail', decision: 'conditional_pass' });
+  });
+});

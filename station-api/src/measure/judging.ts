@@ -46,7 +46,7 @@ export function judgeLimit(
   step: Pick<PlanStep, 'key' | 'name'>,
   limit: LimitSpec,
   q: QuantityReading | undefined,
-  fixture: { voltageUncertaintyV: number },
+  fixture: UncertaintySource,
   startedAt: Date,
   measuredAt: Date,
 ): JudgedRow {
@@ -94,11 +94,30 @@ export function judgeLimit(
   };
 }
 
+/** Where the expanded uncertainties of a run come from besides the plan: the fixture and its current calibration. */
+export interface UncertaintySource {
+  /** The fixture's voltmeter uncertainty, volts (k = 2) */
+  voltageUncertaintyV: number;
+  /**
+   * U (k = 2) per quantity as the fixture's current calibration certificate states it, keyed by the quantity
+   * name a limit key starts with (`voutV` covers `voutV@1.5`), in that quantity's unit (the plan checks hold
+   * every limit to the registry's unit)
+   */
+  calibrated?: Readonly<Record<string, number>>;
+}
+
 /**
- * Expanded uncertainty for a limit, in the limit's unit: the limit's own value, else the fixture's
- * output-voltage uncertainty for volt quantities (V or mV), else 0.
+ * Expanded uncertainty for a limit, in the limit's unit. The rule (docs/calibration.md):
+ * 1. the current calibration's U for the limit's quantity, when the certificate states one: it replaces the
+ *    plan's value, which is a planning estimate made before the fixture was calibrated;
+ * 2. else the limit's own value from the plan;
+ * 3. else the fixture's output-voltage uncertainty for volt quantities (V or mV);
+ * 4. else 0.
  */
-export function uncertaintyFor(limit: LimitSpec, fixture: { voltageUncertaintyV: number }): number {
+export function uncertaintyFor(limit: LimitSpec, fixture: UncertaintySource): number {
+  // the quantity is the key before any `@<load>` (plans/step-kinds/limit-keys.ts; measure/ stays free of the registry)
+  const stated = fixture.calibrated?.[limit.key.split('@')[0]];
+  if (typeof stated === 'number' && Number.isFinite(stated) && stated >= 0) return stated;
   if (limit.uncertainty !== undefined && limit.uncertainty !== null) return limit.uncertainty;
   if (limit.unit === 'V') return fixture.voltageUncertaintyV;
   if (limit.unit === 'mV') return fixture.voltageUncertaintyV * 1000;

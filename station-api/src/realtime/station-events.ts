@@ -121,6 +121,8 @@ export interface StationStatePayload extends StationEventBase {
   state: StationState;
   /** Why the station is not ready, in plain words; empty when ready or testing */
   reasons: string[];
+  /** What will block soon but does not yet (calibration due soon, contacts nearly worn), in plain words; never stops a run */
+  warnings: string[];
   currentRunId?: number;
   currentSerial?: string;
 }

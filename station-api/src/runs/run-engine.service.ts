@@ -186,6 +186,7 @@ export class RunEngineService implements OnApplicationBootstrap, BeforeApplicati
         fixtureCalibrationDueAt: a.fixture.calibrationDueAt,
         fixtureContactCycles: cycles,
         overrideReason,
+        calibrationId: a.calibrationId,
       });
       if (input.audit !== false && this.audit) await this.auditStart(input.requester.id, runId, a.unit.serial, a.fixture.code, a.attempt, stationId, overrideReason);
       const operator = { id: input.requester.id, displayName: operatorName };
@@ -212,9 +213,6 @@ export class RunEngineService implements OnApplicationBootstrap, BeforeApplicati
       const active: ActiveRun = { runId, serial: a.unit.serial, abort, done: Promise.resolve(undefined as never) };
       this.active.set(stationId, active);
 
-      this.stationStatus.runStarted(stationId, runId, a.unit.serial);
-      this.events.emit('run:started', { stationId, run: view, unit: toUnitView(a.unit), steps: toStepOutline(a.plan.steps) });
-
       // what the station looked like at the start; its state after the run is worked out from this without a query
       const snapshot = {
         station: { code: a.station.code, active: a.station.active },
@@ -228,6 +226,9 @@ export class RunEngineService implements OnApplicationBootstrap, BeforeApplicati
         lot: { code: lot.code, state: lot.state, holdReason: lot.holdReason, partNumber: product.partNumber },
         hasReleasedPlan: true,
       };
+      this.stationStatus.runStarted(stationId, runId, a.unit.serial, snapshot);
+      this.events.emit('run:started', { stationId, run: view, unit: toUnitView(a.unit), steps: toStepOutline(a.plan.steps) });
+
       active.done = this.executor
         .execute({
           runId,
@@ -239,7 +240,7 @@ export class RunEngineService implements OnApplicationBootstrap, BeforeApplicati
           stopAtFirstFailure: a.plan.stopAtFirstFailure,
           unit: { id: a.unit.id, serial: a.unit.serial, lotCode: lot.code, view: toUnitView(a.unit) },
           product,
-          fixture: { voltageUncertaintyV: a.fixture.voltageUncertaintyV },
+          fixture: a.uncertainties,
           startedAt,
           onStepStarted: input.onStepStarted,
           onStepTimed: input.onStepTimed,

@@ -3,7 +3,7 @@ import { performance } from 'node:perf_hooks';
 import { FixtureFault, isFixtureFault } from '../fixtures/transport/fixture-fault';
 import type { FixtureLink } from '../fixtures/transport/fixture-link.service';
 import { CommandAborted } from '../fixtures/transport/scpi-client';
-import { judgeLimit } from '../measure/judging';
+import { judgeLimit, type UncertaintySource } from '../measure/judging';
 import type { PlanStep } from '../plans/plan-definition';
 import type { MeasurementView, RunEndReasonName, UnitView } from '../realtime/station-events';
 import type { StationEventsPublisher } from '../realtime/station-events.publisher';
@@ -29,7 +29,8 @@ export interface RunContext {
   stopAtFirstFailure: boolean;
   unit: { id: number; serial: string; lotCode: string; view: UnitView };
   product: { partNumber: string; vinMinV: number; vinNomV: number; vinMaxV: number; voutNomV: number; ioutRatedA: number };
-  fixture: { voltageUncertaintyV: number };
+  /** The fixture's uncertainties, with the current calibration's per-quantity values */
+  fixture: UncertaintySource;
   startedAt: Date;
   onStepStarted?: (runId: number, stepKey: string, stepIndex: number) => void;
   onStepTimed?: (t: StepTiming) => void;

@@ -1,7 +1,8 @@
 import { EntityManager } from '@mikro-orm/sqlite';
+import { currentCalibration } from '../fixtures/calibration/current-calibration';
 import { Fixture } from '../fixtures/fixture.entity';
 import { guardedLimits } from '../measure/acceptance';
-import { uncertaintyFor } from '../measure/judging';
+import { uncertaintyFor, type UncertaintySource } from '../measure/judging';
 import { PlanVersion } from '../plans/plan-version.entity';
 import { PlansService } from '../plans/plans.service';
 import { Station } from '../stations/station.entity';
@@ -22,6 +23,9 @@ export interface Assessed {
   plan: PlanVersion;
   attempt: number;
   retestOfPassed: boolean;
+  /** The fixture's current calibration record (null when it has none) and the uncertainties judging uses */
+  calibrationId: number | null;
+  uncertainties: UncertaintySource;
 }
 
 export interface AssessOptions {
@@ -130,12 +134,15 @@ export class RunPreconditions {
         { testCount: unit.testCount, attemptsUsed, maxAttempts: plan.maxAttempts },
       );
     }
+    // the calibration in force now: its uncertainties set the guard bands of this run (docs/calibration.md)
+    const calibration = await currentCalibration(em, fixture.id);
+    const uncertainties: UncertaintySource = { voltageUncertaintyV: fixture.voltageUncertaintyV, calibrated: calibration?.uncertainties ?? {} };
     const problems = plan.steps.flatMap((s) => stepProblems(s));
     for (const step of plan.steps) {
       for (const limit of step.limits) {
         if (limit.rule !== 'guarded') continue;
         try {
-          guardedLimits({ low: limit.low, high: limit.high, uncertainty: uncertaintyFor(limit, fixture), rule: 'guarded' });
+          guardedLimits({ low: limit.low, high: limit.high, uncertainty: uncertaintyFor(limit, uncertainties), rule: 'guarded' });
         } catch (err) {
           problems.push(`step "${step.name}" limit ${limit.key}: ${(err as Error).message}`);
         }
@@ -144,7 +151,7 @@ export class RunPreconditions {
     if (problems.length > 0) {
       throw new RunRefusal('station_blocked', `Plan ${plan.plan.code} v${plan.version} cannot be run: ${problems.join('; ')}.`, { reasons: problems });
     }
-    return { station, fixture, unit, plan, attempt: unit.testCount + 1, retestOfPassed };
+    return { station, fixture, unit, plan, attempt: unit.testCount + 1, retestOfPassed, calibrationId: calibration?.id ?? null, uncertainties };
   }
 
   scanResult(a: Assessed): ScanResult {

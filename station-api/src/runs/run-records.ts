@@ -29,6 +29,8 @@ export interface NewRun {
   fixtureCalibrationDueAt: Date;
   fixtureContactCycles: number;
   overrideReason?: string;
+  /** The calibration record the run is judged with, if the fixture has one */
+  calibrationId?: number | null;
 }
 
 /** A run closed at start-up because the server stopped during it. */
@@ -80,6 +82,7 @@ export class RunRecords {
             fixtureIdentity: r.fixtureIdentity,
             fixtureCalibrationDueAt: r.fixtureCalibrationDueAt,
             fixtureContactCycles: r.fixtureContactCycles,
+            calibration: r.calibrationId ?? undefined,
             overrideReason: r.overrideReason,
             overrideBy: r.overrideReason ? r.operatorId : undefined,
             createdAt: now,

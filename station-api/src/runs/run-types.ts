@@ -69,6 +69,8 @@ export interface StationStatus {
   stationName: string;
   state: StationStatePayload['state'];
   reasons: string[];
+  /** Non-blocking warnings (see StationStatePayload) */
+  warnings: string[];
   currentRunId?: number;
   currentSerial?: string;
   fixture: { id: number; code: string; calibrationDueAt: string; contactCyclesUsed: number; contactCyclesAllowed: number } | null;

@@ -3,6 +3,7 @@ import { Logger } from '@nestjs/common';
 import type { FixtureLinkService } from '../fixtures/transport/fixture-link.service';
 import type { StationEventsPublisher } from '../realtime/station-events.publisher';
 import { Station } from '../stations/station.entity';
+import { calibrationWarnDays } from '../config/calibration.config';
 import { readiness, ReadinessInput } from '../stations/station-readiness';
 import type { ActiveRuns } from './active-runs';
 import type { RunPreconditions } from './run-preconditions';
@@ -63,6 +64,7 @@ export class StationStatusService {
       hasReleasedPlan: !!plan,
       fixtureFault: fixture ? this.links.faultOf(fixture.id)?.message : undefined,
       running,
+      calibrationWarnDays: calibrationWarnDays(),
     });
     return {
       stationId: station.id,
@@ -70,6 +72,7 @@ export class StationStatusService {
       stationName: station.name,
       state: r.state,
       reasons: r.reasons,
+      warnings: r.warnings,
       ...(running ? { currentRunId: running.runId, currentSerial: running.serial } : {}),
       fixture: fixture
         ? {
@@ -84,9 +87,10 @@ export class StationStatusService {
     };
   }
 
-  /** Announces that a run started on the station. */
-  runStarted(stationId: number, runId: number, serial: string): void {
-    this.events.emit('station:state', { stationId, state: 'testing', reasons: [], currentRunId: runId, currentSerial: serial });
+  /** Announces that a run started on the station (with the warnings its start snapshot gives). */
+  runStarted(stationId: number, runId: number, serial: string, snapshot?: Omit<ReadinessInput, 'now' | 'fixtureFault' | 'running'>): void {
+    const warnings = snapshot ? readiness({ ...snapshot, now: new Date(), calibrationWarnDays: calibrationWarnDays() }).warnings : [];
+    this.events.emit('station:state', { stationId, state: 'testing', reasons: [], warnings, currentRunId: runId, currentSerial: serial });
   }
 
   /**
@@ -94,8 +98,8 @@ export class StationStatusService {
    * start (`snapshot`), then afresh if its master data changed during the run.
    */
   runEnded(stationId: number, snapshot: Omit<ReadinessInput, 'now' | 'fixtureFault' | 'running'>, fixtureId: number): void {
-    const r = readiness({ ...snapshot, now: new Date(), fixtureFault: this.links.faultOf(fixtureId)?.message });
-    this.events.emit('station:state', { stationId, state: r.state, reasons: r.reasons });
+    const r = readiness({ ...snapshot, now: new Date(), fixtureFault: this.links.faultOf(fixtureId)?.message, calibrationWarnDays: calibrationWarnDays() });
+    this.events.emit('station:state', { stationId, state: r.state, reasons: r.reasons, warnings: r.warnings });
     if (this.staleAfterRun.delete(stationId)) this.track(this.publishState(stationId));
   }
 
@@ -144,6 +148,7 @@ export class StationStatusService {
         stationId,
         state: s.state,
         reasons: s.reasons,
+        warnings: s.warnings,
         ...(s.currentRunId ? { currentRunId: s.currentRunId, currentSerial: s.currentSerial } : {}),
       });
     } catch (err) {

@@ -1,5 +1,6 @@
 import { Collection, Entity, Enum, Index, ManyToOne, OneToMany, Property } from '@mikro-orm/core';
 import { BaseEntity } from '../common/base.entity';
+import { CalibrationRecord } from '../fixtures/calibration/calibration-record.entity';
 import { Fixture } from '../fixtures/fixture.entity';
 import { Lot } from '../lots/lot.entity';
 import { PlanVersion } from '../plans/plan-version.entity';
@@ -104,6 +105,10 @@ export class TestRun extends BaseEntity {
 
   @Property({ nullable: true })
   fixtureContactCycles?: number;
+
+  /** The fixture calibration whose uncertainties the run was judged with (Migration20261202151000); null for older runs */
+  @ManyToOne(() => CalibrationRecord, { nullable: true })
+  calibration?: CalibrationRecord;
 
   /** Engineer override for retesting an already-passed unit */
   @Property({ type: 'text', nullable: true })

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { Fixture } from '../fixtures/fixture.entity';
 import { Lot, LotState } from '../lots/lot.entity';
 import { Station } from './station.entity';
-import { plainDate, readiness, ReadinessInput, staticBlockReasons } from './station-readiness';
+import { fixtureWarnings, plainDate, readiness, ReadinessInput, staticBlockReasons } from './station-readiness';
 
 const now = new Date('2026-11-20T08:00:00Z');
 const base: ReadinessInput = {
@@ -15,7 +15,7 @@ const base: ReadinessInput = {
 
 describe('readiness', () => {
   it('is ready with nothing wrong', () => {
-    expect(readiness(base)).toEqual({ state: 'ready', reasons: [], blocking: [] });
+    expect(readiness(base)).toEqual({ state: 'ready', reasons: [], blocking: [], warnings: [] });
   });
 
   it('is idle with no active lot and nothing else wrong', () => {
@@ -58,6 +58,44 @@ describe('readiness', () => {
 
   it('formats dates as day, short month, year in UTC', () => {
     expect(plainDate(new Date('2026-11-03T23:30:00Z'))).toBe('3 Nov 2026');
+  });
+});
+
+describe('warnings before blocking', () => {
+  const DAY_MS = 86_400_000;
+  const fx = (over: Partial<ReadinessInput['fixture']>) => ({ ...base, fixture: { ...base.fixture!, ...over } });
+
+  it('warns, without blocking, when the calibration falls due within the warning window', () => {
+    const r = readiness(fx({ calibrationDueAt: new Date(now.getTime() + 20 * DAY_MS) }));
+    expect(r).toMatchObject({ state: 'ready', blocking: [], reasons: [] });
+    expect(r.warnings).toEqual(['Calibration due 10 Dec 2026 (in 20 days); book the recalibration']);
+  });
+
+  it('counts the window in whole days and honours a configured number of days', () => {
+    // 30 days exactly is inside the default 30-day window; 31 is outside; a 7-day window excludes 20
+    expect(readiness(fx({ calibrationDueAt: new Date(now.getTime() + 30 * DAY_MS) })).warnings).toHaveLength(1);
+    expect(readiness(fx({ calibrationDueAt: new Date(now.getTime() + 31 * DAY_MS) })).warnings).toEqual([]);
+    expect(readiness({ ...fx({ calibrationDueAt: new Date(now.getTime() + 20 * DAY_MS) }), calibrationWarnDays: 7 }).warnings).toEqual([]);
+    expect(readiness({ ...fx({ calibrationDueAt: new Date(now.getTime() + 5 * DAY_MS) }), calibrationWarnDays: 0 }).warnings).toEqual([]);
+    expect(fixtureWarnings({ ...base.fixture!, calibrationDueAt: now }, now)).toEqual(['Calibration due 20 Nov 2026 (today); book the recalibration']);
+    expect(fixtureWarnings({ ...base.fixture!, calibrationDueAt: new Date(now.getTime() + 3_600_000) }, now)[0]).toContain('(in 1 day)');
+  });
+
+  it('warns at 90 % of the contact allowance and blocks at 100 %', () => {
+    expect(readiness(fx({ contactCyclesUsed: 44_999 })).warnings).toEqual([]);
+    const at90 = readiness(fx({ contactCyclesUsed: 45_000 }));
+    expect(at90).toMatchObject({ state: 'ready', blocking: [] });
+    expect(at90.warnings).toEqual(['Contact cycles at 90 % (45,000 of 50,000); plan a probe change']);
+    const worn = readiness(fx({ contactCyclesUsed: 50_000 }));
+    expect(worn).toMatchObject({ state: 'blocked', blocking: ['Contact cycles at limit (50,000 of 50,000)'], warnings: [] });
+  });
+
+  it('blocks an overdue calibration instead of warning, and keeps warnings while testing', () => {
+    const overdue = readiness(fx({ calibrationDueAt: new Date(now.getTime() - 1000) }));
+    expect(overdue).toMatchObject({ state: 'blocked', blocking: ['Calibration overdue since 20 Nov 2026'], warnings: [] });
+    const testing = readiness({ ...fx({ contactCyclesUsed: 46_000 }), running: { runId: 1, serial: 'K5A-2647-00001' } });
+    expect(testing).toMatchObject({ state: 'testing', reasons: [] });
+    expect(testing.warnings).toHaveLength(1);
   });
 });
 

@@ -24,6 +24,8 @@ export interface ReadinessInput {
   fixtureFault?: string;
   /** A run in progress on this station */
   running?: { runId: number; serial: string };
+  /** Days before the calibration due date from which it warns (CALIBRATION_WARN_DAYS); 30 when absent */
+  calibrationWarnDays?: number;
 }
 
 export interface Readiness {
@@ -31,7 +33,14 @@ export interface Readiness {
   reasons: string[];
   /** Reasons that forbid starting a run (a subset of `reasons`) */
   blocking: string[];
+  /** What will block soon but does not yet (calibration due soon, contacts nearly worn); never stops a run */
+  warnings: string[];
 }
+
+const DAY_MS = 86_400_000;
+/** Contact cycles used, as a fraction of those allowed, from which a probe change is announced */
+export const CONTACT_WARN_FRACTION = 0.9;
+export const DEFAULT_CALIBRATION_WARN_DAYS = 30;
 
 const dateFmt = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric', timeZone: 'UTC' });
 const countFmt = new Intl.NumberFormat('en-US');
@@ -39,6 +48,43 @@ const countFmt = new Intl.NumberFormat('en-US');
 /** "3 Nov 2026" */
 export function plainDate(d: Date): string {
   return dateFmt.format(d);
+}
+
+/** What readiness reads of a fixture. */
+export type ReadinessFixture = NonNullable<ReadinessInput['fixture']>;
+
+/** "Calibration overdue since 3 Nov 2026", or undefined while it is still valid (the due date itself is valid). */
+export function calibrationBlock(f: Pick<ReadinessFixture, 'calibrationDueAt'>, now: Date): string | undefined {
+  return f.calibrationDueAt.getTime() < now.getTime() ? `Calibration overdue since ${plainDate(f.calibrationDueAt)}` : undefined;
+}
+
+/** "Contact cycles at limit (50,000 of 50,000)", or undefined while cycles remain. */
+export function contactBlock(f: Pick<ReadinessFixture, 'contactCyclesUsed' | 'contactCyclesAllowed'>): string | undefined {
+  return f.contactCyclesUsed >= f.contactCyclesAllowed
+    ? `Contact cycles at limit (${countFmt.format(f.contactCyclesUsed)} of ${countFmt.format(f.contactCyclesAllowed)})`
+    : undefined;
+}
+
+/**
+ * The fixture's warnings, worded for the station, the board and the fixtures page alike: a calibration due
+ * within `warnDays` days (counted in whole days, rounded up, so "in 1 day" until the due moment), and contact
+ * cycles at 90 % of the allowance or more but not yet exhausted. Nothing already blocking is repeated.
+ */
+export function fixtureWarnings(f: Pick<ReadinessFixture, 'calibrationDueAt' | 'contactCyclesUsed' | 'contactCyclesAllowed'>, now: Date, warnDays = DEFAULT_CALIBRATION_WARN_DAYS): string[] {
+  const out: string[] = [];
+  const leftMs = f.calibrationDueAt.getTime() - now.getTime();
+  if (leftMs >= 0 && leftMs <= warnDays * DAY_MS) {
+    const days = Math.ceil(leftMs / DAY_MS);
+    const when = days === 0 ? 'today' : `in ${days} day${days === 1 ? '' : 's'}`;
+    out.push(`Calibration due ${plainDate(f.calibrationDueAt)} (${when}); book the recalibration`);
+  }
+  const used = f.contactCyclesUsed;
+  const allowed = f.contactCyclesAllowed;
+  if (used < allowed && used >= CONTACT_WARN_FRACTION * allowed) {
+    const pct = Math.floor((used / allowed) * 100);
+    out.push(`Contact cycles at ${pct} % (${countFmt.format(used)} of ${countFmt.format(allowed)}); plan a probe change`);
+  }
+  return out;
 }
 
 /**
@@ -54,11 +100,12 @@ export function readiness(input: ReadinessInput): Readiness {
   } else {
     if (!fixture.active) blocking.push(`Fixture ${fixture.code} is out of service`);
     // due date itself is still usable: overdue means strictly after it
-    if (fixture.calibrationDueAt.getTime() < now.getTime()) blocking.push(`Calibration overdue since ${plainDate(fixture.calibrationDueAt)}`);
-    if (fixture.contactCyclesUsed >= fixture.contactCyclesAllowed) {
-      blocking.push(`Contact cycles at limit (${countFmt.format(fixture.contactCyclesUsed)} of ${countFmt.format(fixture.contactCyclesAllowed)})`);
-    }
+    const calibration = calibrationBlock(fixture, now);
+    if (calibration) blocking.push(calibration);
+    const contacts = contactBlock(fixture);
+    if (contacts) blocking.push(contacts);
   }
+  const warnings = fixture ? fixtureWarnings(fixture, now, input.calibrationWarnDays) : [];
   let noLot = false;
   if (!lot) {
     noLot = true;
@@ -78,7 +125,7 @@ export function readiness(input: ReadinessInput): Readiness {
   else if (input.fixtureFault && fixture) state = 'fault';
   else if (noLot) state = 'idle';
   else state = 'ready';
-  return { state, reasons: state === 'testing' ? [] : reasons, blocking: noLot ? ['No active lot', ...blocking] : blocking };
+  return { state, reasons: state === 'testing' ? [] : reasons, blocking: noLot ? ['No active lot', ...blocking] : blocking, warnings };
 }
 
 /**

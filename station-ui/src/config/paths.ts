@@ -155,4 +155,11 @@ export const apiPaths = {
   characterizationDataSet: (id: number) => `/characterization/data-sets/${id}`,
   characterizationAnalysis: (id: number) => `/characterization/data-sets/${id}/analysis`,
   characterizationAccept: (id: number) => `/characterization/data-sets/${id}/accept`,
+  // fixtures and calibration (issue 10, H2): records with their certificate PDFs, the contact reset
+  fixtures: '/fixtures',
+  fixture: (id: number) => `/fixtures/${id}`,
+  fixtureCalibrations: (id: number) => `/fixtures/${id}/calibrations`,
+  fixtureCertificate: (fixtureId: number, calibrationId: number) => `/fixtures/${fixtureId}/calibrations/${calibrationId}/certificate`,
+  fixtureContactsReplaced: (id: number) => `/fixtures/${id}/contacts-replaced`,
+  calibrationQuantities: '/fixtures/calibration-quantities',
 } as const;

@@ -43,6 +43,7 @@ export class BoardEntryDto {
   @ApiProperty({ type: BoardStationRefDto }) station!: BoardStationRefDto;
   @ApiProperty({ enum: STATES }) state!: StationState;
   @ApiProperty({ type: [String], description: 'why the station is not ready, in plain words' }) reasons!: string[];
+  @ApiProperty({ type: [String], description: 'non-blocking warnings (calibration due soon, contacts nearly worn), in plain words' }) warnings!: string[];
   @ApiProperty({ type: BoardFixtureDto, nullable: true }) fixture!: BoardFixtureDto | null;
   @ApiProperty({ type: BoardLotDto, nullable: true }) activeLot!: BoardLotDto | null;
   @ApiProperty({ type: BoardCurrentRunDto, nullable: true }) currentRun!: BoardCurrentRunDto | null;

@@ -47,6 +47,17 @@ const MULTIPART_ROUTES = new Set([
   // H1: characterization data (CSV upload)
   'POST /api/characterization/data-sets',
 ]);
+const MULTIPART_ROUTES = new Set(['POST /api/plans/import']);
+/** Upload routes with an id in the path (checked as patterns: `METHOD /api/path`) */
+const MULTIPART_ROUTE_PATTERNS: readonly RegExp[] = [
+  // fixtures and calibration (issue 10, H2): a calibration record with its certificate PDF
+  /^POST \/api\/fixtures\/\d+\/calibrations$/,
+];
+
+function isMultipartRoute(method: string, path: string): boolean {
+  const key = `${method} ${path}`;
+  return MULTIPART_ROUTES.has(key) || MULTIPART_ROUTE_PATTERNS.some((p) => p.test(key));
+}
 
 /**
  * Bodies sent to the API must be JSON. A text/plain or XML PATCH used to answer 200 and change nothing;
@@ -56,7 +67,7 @@ export function requireJsonBodies(req: Request, res: Response, next: NextFunctio
   if (!isApi(req) || !hasBody(req)) return next();
   const type = (req.headers['content-type'] ?? '').toLowerCase();
   // the file uploads (a plan file) take multipart/form-data, and only those routes
-  if (MULTIPART_ROUTES.has(`${req.method} ${req.path}`) && /^multipart\/form-data\s*;/.test(type)) return next();
+  if (isMultipartRoute(req.method, req.path) && /^multipart\/form-data\s*;/.test(type)) return next();
   if (!/^application\/json\s*(;|$)/.test(type)) {
     return send(res, 415, `The API accepts only JSON bodies: send "Content-Type: application/json" (this request sent ${type ? `"${type}"` : 'no content type'}).`, { code: 'unsupported_media_type' });
   }

@@ -4,6 +4,7 @@ import { DemoPlantSeeder } from './DemoPlantSeeder';
 import { PlanSeeder } from './PlanSeeder';
 import { HistorySeeder } from './HistorySeeder';
 import { HoldRuleSeeder } from './HoldRuleSeeder';
+import { CalibrationSeeder } from './CalibrationSeeder';
 
 /**
  * Demo data, in order: plant master data, released test plans, then test history. Every seeder is
@@ -16,5 +17,6 @@ export class DatabaseSeeder extends Seeder {
     await this.call(em, [PlanSeeder]); // released plan versions from test-plans/
     await this.call(em, [HistorySeeder]); // runs the real engine; skips itself when SEED_HISTORY=0 (e2e tests) or runs exist
     await this.call(em, [HoldRuleSeeder]); // one hold rule per demo product (demo history only)
+    await this.call(em, [CalibrationSeeder]); // calibration records of the demo fixtures (issue 10, H2)
   }
 }

@@ -1,5 +1,5 @@
-import { PlaceholderPage } from '@/components/layout/placeholder-page';
+import { FixturesScreen } from '@/features/fixtures/components/fixtures-screen';
 
 export default function FixturesRoute() {
-  return <PlaceholderPage title="Fixtures" purpose="Test fixtures, their connection and calibration status." />;
+  return <FixturesScreen />;
 }

@@ -55,8 +55,13 @@ describe('board events', () => {
 
   it('a state change carries the reasons; leaving "testing" clears the unit under test', () => {
     let b = boardWithRunStarted(sampleBoard(), started);
-    b = boardWithState(b, { stationId: 1, emittedAt: 5, state: 'fault', reasons: ['Fixture FX-101 does not answer'] });
-    expect(b[0]).toMatchObject({ state: 'fault', reasons: ['Fixture FX-101 does not answer'], currentRun: null });
+    b = boardWithState(b, { stationId: 1, emittedAt: 5, state: 'fault', reasons: ['Fixture FX-101 does not answer'], warnings: ['Calibration due 22 Dec 2026 (in 20 days); book the recalibration'] });
+    expect(b[0]).toMatchObject({
+      state: 'fault',
+      reasons: ['Fixture FX-101 does not answer'],
+      warnings: ['Calibration due 22 Dec 2026 (in 20 days); book the recalibration'],
+      currentRun: null,
+    });
   });
 
   it('a step of a run the refetched board missed brings the unit under test back', () => {

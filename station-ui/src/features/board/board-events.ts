@@ -21,6 +21,7 @@ export function boardWithState(board: BoardStation[], p: StationStatePayload): B
     ...t,
     state: p.state,
     reasons: p.reasons,
+    warnings: p.warnings ?? [],
     // a station no longer testing has no current unit, even if its run:finished was missed
     currentRun: p.state === 'testing' ? t.currentRun : null,
   }));

@@ -50,6 +50,18 @@ describe('BoardScreen', () => {
     expect(within(two).getByTestId('fpy-EOL-2')).toHaveTextContent('—');
   });
 
+  it('shows warnings as a heads-up on a station that still tests', async () => {
+    const board = sampleBoard();
+    Object.assign(board[0]!, { warnings: ['Contact cycles at 92 % (46,000 of 50,000); plan a probe change'] });
+    vi.stubGlobal('fetch', vi.fn(async () => jsonResponse(200, board)));
+    renderApp(<BoardScreen />, { signedInAs: makeUser(['operator']) });
+    const one = await screen.findByTestId('tile-EOL-1');
+    expect(one).toHaveTextContent('READY');
+    expect(within(one).getByRole('note', { name: 'Heads-up' })).toHaveTextContent('Contact cycles at 92 % (46,000 of 50,000); plan a probe change');
+    expect(within(one).queryByRole('alert')).toBeNull();
+    expect(screen.queryByTestId('warnings-EOL-2')).toBeNull();
+  });
+
   it('joins the board room and follows a unit through its steps', async () => {
     renderApp(<BoardScreen />, { signedInAs: makeUser(['operator']) });
     await screen.findByTestId('tile-EOL-1');

@@ -1,4 +1,5 @@
 import { Progress } from '@mantine/core';
+import { IconCalendarDue } from '@tabler/icons-react';
 import { formatFigure } from '@/components/figure';
 import { StationStateMark } from '@/components/station-state';
 import type { BoardStation } from '../api/get-board';
@@ -10,6 +11,8 @@ import { RecentVerdicts } from './recent-verdicts';
 export function StationTile({ tile }: { tile: BoardStation }) {
   const { station, state, reasons, activeLot, currentRun, lastRuns, shift } = tile;
   const alert = state === 'fault' || state === 'blocked';
+  // sent by servers from issue 10 on (typed by hand until the API types are regenerated)
+  const warnings = (tile as BoardStation & { warnings?: string[] }).warnings ?? [];
   return (
     <article className={classes.tile} data-state={state} aria-label={`Station ${station.code}`} data-testid={`tile-${station.code}`}>
       <header className={classes.tileHead}>
@@ -21,6 +24,17 @@ export function StationTile({ tile }: { tile: BoardStation }) {
         <ul className={classes.alert} data-state={state} role="alert">
           {(reasons.length > 0 ? reasons : ['The station cannot test now.']).map((r) => (
             <li key={r}>{r}</li>
+          ))}
+        </ul>
+      )}
+      {warnings.length > 0 && (
+        // a heads-up, not an alarm: the station still tests
+        <ul className={classes.notice} role="note" aria-label="Heads-up" data-testid={`warnings-${station.code}`}>
+          {warnings.map((w) => (
+            <li key={w}>
+              <IconCalendarDue size={24} aria-hidden className={classes.noticeIcon} />
+              <span>{w}</span>
+            </li>
           ))}
         </ul>
       )}

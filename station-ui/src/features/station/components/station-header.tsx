@@ -1,5 +1,5 @@
 import { Button } from '@mantine/core';
-import { IconVolume, IconVolumeOff } from '@tabler/icons-react';
+import { IconCalendarDue, IconVolume, IconVolumeOff } from '@tabler/icons-react';
 import { StationStateMark, StationStateShapeIcon } from '@/components/station-state';
 import type { LiveLinkState } from '@/lib/socket';
 import type { StationStatus } from '../api/get-station-status';
@@ -14,6 +14,11 @@ export interface StationHeaderProps {
   muted: boolean;
   onToggleMuted: () => void;
   onChangeStation: () => void;
+}
+
+/** Non-blocking warnings (calibration due soon, contacts nearly worn); absent from a server that sends none. */
+function warningsOf(status: StationStatus): string[] {
+  return (status as StationStatus & { warnings?: string[] }).warnings ?? [];
 }
 
 /** Which station this is, its state in words, the lot it runs; sound and station switches. */
@@ -43,6 +48,16 @@ export function StationHeader({ status, link, statusFailed = false, muted, onTog
         // also while a verdict fills the panel below, the reason stays in sight
         <span className={classes.headerReasons} title={status.reasons.join('; ')} data-testid="header-reasons">
           {status.reasons.join('; ')}
+        </span>
+      )}
+      {status && warningsOf(status).length > 0 && (
+        // a heads-up, not an alarm: testing goes on; the words say what to book before it blocks
+        <span className={classes.headerWarnings} title={warningsOf(status).join('; ')} data-testid="header-warnings" role="note">
+          <IconCalendarDue size={20} aria-hidden />
+          <span>
+            <span className={classes.headerWarningsLabel}>Heads-up: </span>
+            {warningsOf(status).join('; ')}
+          </span>
         </span>
       )}
       <div className={classes.headerLot} data-testid="active-lot">

@@ -425,12 +425,29 @@ describe('StationScreen', () => {
 
   it('shows the blocking reasons of a blocked station from the live state', async () => {
     await openStation();
-    const blocked: StationStatePayload = { stationId: 1, emittedAt: Date.now(), state: 'blocked', reasons: ['Calibration of FX-101 overdue since 3 Nov'] };
+    const blocked: StationStatePayload = { stationId: 1, emittedAt: Date.now(), state: 'blocked', reasons: ['Calibration of FX-101 overdue since 3 Nov'], warnings: [] };
     await fire('station:state', blocked);
     const panel = await screen.findByTestId('not-ready');
     expect(panel).toHaveTextContent('BLOCKED');
     expect(panel).toHaveTextContent('Calibration of FX-101 overdue since 3 Nov');
     expect(screen.getByTestId('header-reasons')).toHaveTextContent('Calibration of FX-101 overdue since 3 Nov');
+  });
+
+  it('shows a warning from the live state as a heads-up while the station stays ready', async () => {
+    await openStation();
+    expect(screen.queryByTestId('header-warnings')).toBeNull();
+    const warned: StationStatePayload = {
+      stationId: 1,
+      emittedAt: Date.now(),
+      state: 'ready',
+      reasons: [],
+      warnings: ['Calibration due 22 Dec 2026 (in 20 days); book the recalibration'],
+    };
+    await fire('station:state', warned);
+    const note = await screen.findByTestId('header-warnings');
+    expect(note).toHaveTextContent('Heads-up: Calibration due 22 Dec 2026 (in 20 days); book the recalibration');
+    expect(screen.queryByTestId('not-ready')).toBeNull();
+    expect(screen.getByRole('textbox', { name: 'Serial' })).toBeEnabled();
   });
 
   it("an operator's already-passed unit needs an engineer; nothing to override", async () => {

@@ -25,9 +25,10 @@ export function statusWithState(old: StationStatus, p: StationStatePayload): Sta
     ...rest,
     state: p.state,
     reasons: p.reasons,
+    warnings: p.warnings ?? [],
     ...(p.currentRunId !== undefined ? { currentRunId: p.currentRunId } : {}),
     ...(p.currentSerial !== undefined ? { currentSerial: p.currentSerial } : {}),
-  };
+  } as StationStatus;
 }
 
 /**
