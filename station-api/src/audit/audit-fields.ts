@@ -122,6 +122,9 @@ export function valueWords(value: unknown, unit: string | null = null): string |
     .join('; ');
 }
 
+// code-valued fields whose values read as words once the underscores go (in_repair → in repair)
+const CODE_FIELDS = new Set(['state', 'stage', 'verdict', 'endReason', 'rule']);
+
 const sameValue = (a: unknown, b: unknown) => JSON.stringify(a ?? null) === JSON.stringify(b ?? null);
 
 /**
@@ -141,7 +144,8 @@ export function diffWords(
     const a = after?.[k];
     if (before && after && sameValue(b, a)) continue;
     const f = fieldWords(k);
-    out.push({ field: capitalise(f.words), before: before ? valueWords(b, f.unit) : null, after: after ? valueWords(a, f.unit) : null });
+    const words = (v: unknown) => (CODE_FIELDS.has(k) && typeof v === 'string' ? v.replace(/_/g, ' ') : valueWords(v, f.unit));
+    out.push({ field: capitalise(f.words), before: before ? words(b) : null, after: after ? words(a) : null });
   }
   return out;
 }

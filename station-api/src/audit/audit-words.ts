@@ -147,7 +147,9 @@ export function describeAudit(f: AuditFacts): AuditDescription {
   const phrase = ACTION_WORDS[f.action];
   const what = phrase ? phrase(f) : genericPhrase(f);
   if (f.action === 'plan_version.edited') {
-    return { what, changes: [...planChanges(f), ...diffWords(f.before, f.after, PLAN_EDIT_SKIP)] };
+    // settings changes are in `changes` and in the before/after summary: list them once
+    const skip = new Set([...PLAN_EDIT_SKIP, ...planEditChanges(f).filter((c) => !c.step).map((c) => c.field)]);
+    return { what, changes: [...planChanges(f), ...diffWords(f.before, f.after, skip)] };
   }
   return { what, changes: diffWords(f.before, f.after, f.before && f.after ? NOTHING : ALWAYS_SKIP) };
 }
