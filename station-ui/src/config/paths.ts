@@ -129,4 +129,9 @@ export const apiPaths = {
   planVersionExport: (id: number) => `/plan-versions/${id}/export`,
   planCompare: (from: number, to: number) => `/plan-versions/${from}/compare/${to}`,
   planWhatIf: (id: number) => `/plan-versions/${id}/what-if`,
+  // H3: audit trail (filters: entityType, entityId, user, action, q, from, to; list also limit, offset) and unit history
+  auditExport: '/audit/export',
+  auditChoices: '/audit/choices',
+  unit: (serial: string) => `/units/${encodeURIComponent(serial)}`,
+  unitHistory: (serial: string) => `/units/${encodeURIComponent(serial)}/history`,
 } as const;
