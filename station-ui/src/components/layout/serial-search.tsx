@@ -29,7 +29,7 @@ export function useScanWedge(onScan: (text: string) => void): void {
     let last = 0;
     const onKey = (e: KeyboardEvent) => {
       if (e.ctrlKey || e.altKey || e.metaKey || isEditable(e.target)) return;
-      const now = e.timeStamp || performance.now();
+      const now = Date.now();
       if (now - last > SCAN_KEY_GAP_MS) buffer = '';
       last = now;
       if (e.key === 'Enter') {

@@ -1,4 +1,4 @@
-import { Anchor, Badge, Button, Collapse, Group, Paper, Skeleton, Stack, Table, Text, Title } from '@mantine/core';
+import { Anchor, Badge, Button, Group, Paper, Skeleton, Stack, Table, Text, Title } from '@mantine/core';
 import { IconChevronDown, IconChevronRight } from '@tabler/icons-react';
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
@@ -140,9 +140,11 @@ function RunItem({ run, defaultOpen }: { run: HistoryRun; defaultOpen: boolean }
           <dd>{run.operator.displayName}</dd>
         </div>
       </dl>
-      <Collapse expanded={open}>
-        <Stack mt="sm">{open && <MeasurementRows measurements={run.measurements} />}</Stack>
-      </Collapse>
+      {open && (
+        <Stack mt="sm">
+          <MeasurementRows measurements={run.measurements} />
+        </Stack>
+      )}
     </Paper>
   );
 }
