@@ -81,7 +81,7 @@ describe('unit history: GET /api/units/:serial/history', () => {
 
   it('shows a registered unit that was never tested, with no runs', async () => {
     const res = await history(untested, 'operator').expect(200);
-    expect(res.body).toMatchObject({ unit: { serial: untested, state: 'untested', stateWords: 'Not tested yet' }, runs: [], events: [] });
+    expect(res.body).toMatchObject({ unit: { serial: untested, state: 'untested', stateWords: 'Untested' }, runs: [], events: [] });
   });
 
   it('answers 404 in plain words for an unknown serial, 400 for an over-long one, 401 without sign-in', async () => {

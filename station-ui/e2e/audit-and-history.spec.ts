@@ -71,6 +71,15 @@ describe('audit trail and unit history (real browser)', () => {
     await table.waitFor();
     await expect.poll(() => table.getByText(/^Changed the high limit of .+ from .+ to .+$/).count(), { timeout: 10_000 }).toBeGreaterThan(0);
 
+    // the newest record (the limit change) opened to its before and after, for the screenshots
+    await page.getByRole('button', { name: /^Show before and after of record/ }).first().click();
+    await expect.poll(() => page.getByLabel('Before and after', { exact: true }).first().innerText()).toMatch(/^High limit of .+ → /);
+    await page.setViewportSize({ width: 1024, height: 768 });
+    await screenshot(page, 'audit-1024');
+    await page.setViewportSize({ width: 1920, height: 1080 });
+    await screenshot(page, 'audit-1920');
+    await page.setViewportSize({ width: 1440, height: 900 });
+
     await page.getByRole('combobox', { name: 'Object', exact: true }).click();
     await page.getByRole('option', { name: 'Unit' }).click();
     await page.waitForURL('**/audit?type=unit');
@@ -84,11 +93,6 @@ describe('audit trail and unit history (real browser)', () => {
     ]);
     await page.getByRole('button', { name: /^Show before and after of record/ }).first().click();
     await expect.poll(() => page.getByLabel('Before and after', { exact: true }).first().innerText()).toMatch(/State\s+in repair → untested/);
-    await page.setViewportSize({ width: 1024, height: 768 });
-    await screenshot(page, 'audit-1024');
-    await page.setViewportSize({ width: 1920, height: 1080 });
-    await screenshot(page, 'audit-1920');
-    await page.setViewportSize({ width: 1440, height: 900 });
 
     // a filtered view is an address: the search box narrows it further
     await page.getByRole('textbox', { name: /^Search/ }).fill('bench 2');
@@ -110,7 +114,8 @@ describe('audit trail and unit history (real browser)', () => {
     await box.press('Enter');
     await page.waitForURL(`**/units/${units.defective}`);
     await page.getByRole('heading', { name: units.defective }).waitFor();
-    expect(await page.getByTestId('unit-state').innerText()).toBe('Not tested yet');
+    expect(await page.getByTestId('unit-state').innerText()).toBe('Untested');
+    expect(await page.getByText('Returned from repair: waiting for retest').count()).toBe(1);
     const timeline = page.getByRole('list', { name: 'Timeline' });
     const items = timeline.locator(':scope > li');
     // the run, its safety confirmation, sent to repair, received, returned

@@ -144,7 +144,9 @@ export function diffWords(
     const a = after?.[k];
     if (before && after && sameValue(b, a)) continue;
     const f = fieldWords(k);
-    const words = (v: unknown) => (CODE_FIELDS.has(k) && typeof v === 'string' ? v.replace(/_/g, ' ') : valueWords(v, f.unit));
+    // with both sides recorded, an empty value is a value ("none"), not a missing side
+    const both = !!before && !!after;
+    const words = (v: unknown) => (CODE_FIELDS.has(k) && typeof v === 'string' ? v.replace(/_/g, ' ') : (valueWords(v, f.unit) ?? (both ? '(none)' : null)));
     out.push({ field: capitalise(f.words), before: before ? words(b) : null, after: after ? words(a) : null });
   }
   return out;

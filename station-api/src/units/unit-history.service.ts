@@ -8,7 +8,7 @@ import { normalisedSerial } from './units.service';
 
 /** A unit's state in the product's words, and what it means for the unit next (its disposition). */
 const STATE_WORDS: Readonly<Record<string, { state: string; disposition: string }>> = {
-  untested: { state: 'Not tested yet', disposition: 'Waiting for its first test' },
+  untested: { state: 'Untested', disposition: 'Waiting for its first test' },
   passed: { state: 'Passed', disposition: 'Passed its final test' },
   failed: { state: 'Failed', disposition: 'Failed: waiting for retest or repair' },
   in_repair: { state: 'In repair', disposition: 'In repair' },
@@ -70,7 +70,7 @@ export class UnitHistoryService {
         serial: String(u.serial),
         state: String(u.state),
         stateWords: words.state,
-        disposition: u.state === 'failed' && u.sent_to_repair_at ? 'Failed: sent to repair' : words.disposition,
+        disposition: dispositionOf(String(u.state), !!u.sent_to_repair_at, Number(u.test_count), words.disposition),
         testCount: Number(u.test_count),
         sentToRepairAt: iso(u.sent_to_repair_at),
         product: { id: Number(u.product_id), partNumber: String(u.part_number), name: String(u.product_name) },
@@ -151,6 +151,13 @@ export class UnitHistoryService {
       measurements: byRun.get(Number(r.id)) ?? [],
     }));
   }
+}
+
+function dispositionOf(state: string, sentToRepair: boolean, testCount: number, plain: string): string {
+  if (state === 'failed' && sentToRepair) return 'Failed: sent to repair';
+  // back from repair: untested again, but not new
+  if (state === 'untested' && testCount > 0) return 'Returned from repair: waiting for retest';
+  return plain;
 }
 
 /** The repair record an event carries (flat keys, or nested under `repair`), each field in words. */

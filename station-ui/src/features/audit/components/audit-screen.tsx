@@ -260,17 +260,17 @@ export function AuditScreen() {
             {total} {total === 1 ? 'record' : 'records'}
             {pages > 1 ? ` · page ${page} of ${pages}` : ''} · newest first · times in local time
           </Text>
-          <Table.ScrollContainer minWidth={860}>
+          <Table.ScrollContainer minWidth={700}>
             <Table verticalSpacing="xs" highlightOnHover aria-label="Audit records" aria-busy={audit.isFetching} className={classes.table}>
               <Table.Thead>
                 <Table.Tr>
                   <Table.Th w={44}>
                     <VisuallyHidden>Details</VisuallyHidden>
                   </Table.Th>
-                  <Table.Th w={150}>When</Table.Th>
-                  <Table.Th w={170}>Who</Table.Th>
+                  <Table.Th w={140}>When</Table.Th>
+                  <Table.Th w={140}>Who</Table.Th>
                   <Table.Th>What</Table.Th>
-                  <Table.Th w="28%">Why</Table.Th>
+                  <Table.Th w="26%">Why</Table.Th>
                 </Table.Tr>
               </Table.Thead>
               <Table.Tbody>
