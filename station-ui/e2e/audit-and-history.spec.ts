@@ -73,7 +73,7 @@ describe('audit trail and unit history (real browser)', () => {
 
     // the newest record (the limit change) opened to its before and after, for the screenshots
     await page.getByRole('button', { name: /^Show before and after of record/ }).first().click();
-    await expect.poll(() => page.getByLabel('Before and after', { exact: true }).first().innerText()).toMatch(/^High limit of .+ → /);
+    await expect.poll(() => page.getByLabel('Before and after', { exact: true }).first().innerText()).toMatch(/^High limit of [\s\S]+ → /);
     await page.setViewportSize({ width: 1024, height: 768 });
     await screenshot(page, 'audit-1024');
     await page.setViewportSize({ width: 1920, height: 1080 });
