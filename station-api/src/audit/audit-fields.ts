@@ -146,7 +146,12 @@ export function diffWords(
     const f = fieldWords(k);
     // with both sides recorded, an empty value is a value ("none"), not a missing side
     const both = !!before && !!after;
-    const words = (v: unknown) => (CODE_FIELDS.has(k) && typeof v === 'string' ? v.replace(/_/g, ' ') : (valueWords(v, f.unit) ?? (both ? '(none)' : null)));
+    const words = (v: unknown) => {
+      if (CODE_FIELDS.has(k) && typeof v === 'string') return v.replace(/_/g, ' ');
+      // a checksum is recognised by its start; the full value stays in the record's before/after
+      if (k === 'checksum' && typeof v === 'string' && v.length > 12) return `${v.slice(0, 12)}…`;
+      return valueWords(v, f.unit) ?? (both ? '(none)' : null);
+    };
     out.push({ field: capitalise(f.words), before: before ? words(b) : null, after: after ? words(a) : null });
   }
   return out;

@@ -100,6 +100,7 @@ describe('audit fields in words', () => {
     expect(diffWords({ active: true, displayName: 'A' }, { active: false, displayName: 'A' })).toEqual([{ field: 'Active', before: 'yes', after: 'no' }]);
     expect(diffWords(null, { id: 4, code: 'FX-9' }, new Set(['id']))).toEqual([{ field: 'Code', before: null, after: 'FX-9' }]);
     expect(diffWords({ state: 'in_repair' }, { state: 'untested' })).toEqual([{ field: 'State', before: 'in repair', after: 'untested' }]);
+    expect(diffWords({ checksum: '6b3b7048ab45c81694c1' }, { checksum: '15663afdca005d4520b2' })).toEqual([{ field: 'Checksum', before: '6b3b7048ab45…', after: '15663afdca00…' }]);
     expect(diffWords({ sentToRepairAt: '2026-12-02T16:31:00.000Z' }, { sentToRepairAt: null })).toEqual([{ field: 'Sent to repair', before: '2026-12-02 16:31 UTC', after: '(none)' }]);
   });
 });
