@@ -84,7 +84,7 @@ describe('admin → users against the real server', () => {
       await fillSignIn(person.page, 'j.okafor', 'second-pass-2');
       await person.page.waitForURL('**/station');
       await person.page.locator('nav[aria-label="Main"]').waitFor();
-      expect(await navLinks(person.page)).toEqual(['Station', 'Board', 'Repair', 'Lots', 'Runs', 'Quality']);
+      expect(await navLinks(person.page)).toEqual(['Station', 'Board', 'Repair', 'Lots', 'Runs', 'Quality', 'Holds and alerts', 'Audit trail']);
     } finally {
       await admin.context.close();
       await person.context.close();
