@@ -30,7 +30,11 @@ export const ROUTE_POLICY: Readonly<Record<string, RoutePolicy>> = {
   'POST /api/users': { allow: ['admin'] },
   'PATCH /api/users/:id': { allow: ['admin'] },
   'POST /api/users/:id/password': { allow: ['admin'] },
-  'GET /api/audit': { allow: ['quality', 'admin'] },
+  // audit trail and unit history (H3): engineers, quality and admin read the trail; sign-ins are filtered to admin inside
+  'GET /api/audit': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/audit/export': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/audit/choices': { allow: ['engineer', 'quality', 'admin'] },
+  'GET /api/units/:serial/history': { allow: ALL },
   // master data
   'GET /api/products': { allow: ALL },
   'GET /api/products/:id': { allow: ALL },

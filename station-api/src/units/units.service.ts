@@ -20,16 +20,24 @@ export function toUnitDto(u: Unit): UnitDto {
   };
 }
 
+/**
+ * A serial as typed or scanned, made comparable: scanners may add a trailing CR or spaces, people type in lower
+ * case (serials are stored in upper case, as the station's scan does). Refuses empty or over-long input.
+ */
+export function normalisedSerial(raw: string): string {
+  const serial = raw.trim().toUpperCase();
+  if (serial.length === 0 || serial.length > MAX_SERIAL_LENGTH) {
+    throw new BadRequestException({ message: `A serial has 1 to ${MAX_SERIAL_LENGTH} characters; got ${serial.length}.`, details: [{ field: 'serial', problems: [`serial must have 1 to ${MAX_SERIAL_LENGTH} characters`] }] });
+  }
+  return serial;
+}
+
 @Injectable()
 export class UnitsService {
   constructor(private readonly em: EntityManager) {}
 
   async getBySerial(raw: string): Promise<UnitDto> {
-    // barcode scanners may add a trailing CR or spaces
-    const serial = raw.trim();
-    if (serial.length === 0 || serial.length > MAX_SERIAL_LENGTH) {
-      throw new BadRequestException({ message: `A serial has 1 to ${MAX_SERIAL_LENGTH} characters; got ${serial.length}.`, details: [{ field: 'serial', problems: [`serial must have 1 to ${MAX_SERIAL_LENGTH} characters`] }] });
-    }
+    const serial = normalisedSerial(raw);
     const unit = await this.em.findOne(Unit, { serial }, { populate: ['lot', 'product'] });
     if (!unit) {
       throw new NotFoundException({ message: `No unit with serial "${serial}" is registered. Check the label, or register the lot first.`, details: { code: 'unknown_serial' } });

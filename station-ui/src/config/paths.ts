@@ -162,4 +162,9 @@ export const apiPaths = {
   fixtureCertificate: (fixtureId: number, calibrationId: number) => `/fixtures/${fixtureId}/calibrations/${calibrationId}/certificate`,
   fixtureContactsReplaced: (id: number) => `/fixtures/${id}/contacts-replaced`,
   calibrationQuantities: '/fixtures/calibration-quantities',
+  // H3: audit trail (filters: entityType, entityId, user, action, q, from, to; list also limit, offset) and unit history
+  auditExport: '/audit/export',
+  auditChoices: '/audit/choices',
+  unit: (serial: string) => `/units/${encodeURIComponent(serial)}`,
+  unitHistory: (serial: string) => `/units/${encodeURIComponent(serial)}/history`,
 } as const;

@@ -1,5 +1,5 @@
-import { AuditScreen } from '@/features/admin/components/audit-screen';
+import { AuditScreen } from '@/features/audit/components/audit-screen';
 
-export default function AdminAuditRoute() {
+export default function AuditRoute() {
   return <AuditScreen />;
 }

@@ -1,5 +1,8 @@
-import { PlaceholderPage } from '@/components/layout/placeholder-page';
+import { useParams } from 'react-router-dom';
+import { UnitHistoryScreen } from '@/features/units/components/unit-history-screen';
 
 export default function UnitHistoryRoute() {
-  return <PlaceholderPage title="Unit history" purpose="Every run, measurement, repair and disposition of one unit." />;
+  const { serial = '' } = useParams();
+  // a new serial is a new page: no expanded rows carried over from the last one
+  return <UnitHistoryScreen key={serial} serial={serial} />;
 }

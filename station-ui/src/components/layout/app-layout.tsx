@@ -2,13 +2,14 @@ import { ActionIcon, AppShell, Badge, Box, Burger, Button, Group } from '@mantin
 import { useDisclosure } from '@mantine/hooks';
 import { IconLogout } from '@tabler/icons-react';
 import type { ReactNode } from 'react';
-import { Link } from 'react-router-dom';
-import { paths } from '@/config/paths';
+import { Link, useLocation } from 'react-router-dom';
+import { pages, paths } from '@/config/paths';
 import { roleLabels } from '@/config/roles';
 import type { AuthUser } from '@/lib/auth';
 import classes from './app-layout.module.css';
 import { BrandMark } from './brand-mark';
 import { MainNav } from './main-nav';
+import { SerialSearch } from './serial-search';
 
 interface AppLayoutProps {
   user: AuthUser;
@@ -18,7 +19,10 @@ interface AppLayoutProps {
 
 /** The frame around every signed-in page: product name, who is signed in, navigation by role. */
 export function AppLayout({ user, onSignOut, children }: AppLayoutProps) {
+  const location = useLocation();
   const [navOpen, { toggle, close }] = useDisclosure(false);
+  // the station has its own scan field for testing: a second serial box there would catch the operator's scans
+  const atStation = location.pathname.startsWith(pages.station.path);
   return (
     <AppShell
       header={{ height: 64 }}
@@ -41,6 +45,7 @@ export function AppLayout({ user, onSignOut, children }: AppLayoutProps) {
             <span className={classes.brandName}>Railwright</span>
           </Link>
         </Group>
+        {!atStation && <SerialSearch />}
         <div className={classes.user} aria-label="Signed in">
           <Box visibleFrom="sm" style={{ minWidth: 0, textAlign: 'right' }}>
             <div className={classes.userName} data-testid="signed-in-name">

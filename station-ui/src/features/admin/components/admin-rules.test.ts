@@ -1,7 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { ApiError } from '@/lib/api-client';
 import { describeAdminError } from './admin-error';
-import { describeChange, formatStamp } from './audit-screen';
 import { checkPassword, checkRoles, checkUsername } from './user-rules';
 
 describe('user rules (mirroring station-api/src/users/dto/user.dto.ts)', () => {
@@ -50,21 +49,5 @@ describe('describeAdminError', () => {
     const message = '"admin" is the last active administrator. Give another active user the admin role first.';
     const err = new ApiError(409, 'Conflict', message, { code: 'last_admin' });
     expect(describeAdminError(err, {})).toBe(message);
-  });
-});
-
-describe('audit helpers', () => {
-  it('lists only the fields that changed', () => {
-    expect(describeChange({ roles: ['operator'], displayName: 'A' }, { roles: ['operator', 'quality'], displayName: 'A' })).toEqual([
-      'roles: ["operator"] → ["operator","quality"]',
-    ]);
-    expect(describeChange(null, { active: false })).toEqual(['active: false']);
-    expect(describeChange(null, null)).toEqual([]);
-  });
-
-  it('writes times as local yyyy-mm-dd hh:mm:ss', () => {
-    const iso = new Date(2026, 10, 24, 7, 5, 9).toISOString();
-    expect(formatStamp(iso)).toBe('2026-11-24 07:05:09');
-    expect(formatStamp('not a time')).toBe('not a time');
   });
 });
