@@ -9,6 +9,9 @@ import { TestRun } from '../runs/test-run.entity';
 import { Station } from '../stations/station.entity';
 import { Unit } from '../units/unit.entity';
 import { User } from '../users/user.entity';
+// repair records and causes (H6, issue 12)
+import { RepairCause } from '../repair/repair-cause.entity';
+import { RepairRecord } from '../repair/repair-record.entity';
 
 /** Every entity, listed explicitly so the CLI, Nest and the tests see the same set. */
 export const ENTITIES = [
@@ -23,4 +26,7 @@ export const ENTITIES = [
   TestRun,
   Measurement,
   AuditEvent,
+  // repair records and causes (H6, issue 12)
+  RepairCause,
+  RepairRecord,
 ];

@@ -3,6 +3,7 @@ import { Seeder } from '@mikro-orm/seeder';
 import { DemoPlantSeeder } from './DemoPlantSeeder';
 import { PlanSeeder } from './PlanSeeder';
 import { HistorySeeder } from './HistorySeeder';
+import { RepairCauseSeeder } from './RepairCauseSeeder';
 
 /**
  * Demo data, in order: plant master data, released test plans, then test history. Every seeder is
@@ -14,5 +15,6 @@ export class DatabaseSeeder extends Seeder {
     // Next seeders go here, in this order (add each line once its file exists):
     await this.call(em, [PlanSeeder]); // released plan versions from test-plans/
     await this.call(em, [HistorySeeder]); // runs the real engine; skips itself when SEED_HISTORY=0 (e2e tests) or runs exist
+    await this.call(em, [RepairCauseSeeder]); // the list of repair causes (H6, issue 12)
   }
 }
