@@ -5,7 +5,7 @@ import { Lot } from '../src/lots/lot.entity';
 import { RepairCause } from '../src/repair/repair-cause.entity';
 import { RepairDisposition, RepairRecord } from '../src/repair/repair-record.entity';
 import { repairQueueReason } from '../src/repair/retest-policy';
-import { TestRun } from '../src/runs/test-run.entity';
+import { RunVerdict, TestRun } from '../src/runs/test-run.entity';
 import { Unit, UnitState } from '../src/units/unit.entity';
 import { User } from '../src/users/user.entity';
 import { createTestApp, login, TestApp } from './create-test-app';
@@ -174,7 +174,7 @@ describe('repair records, causes, Pareto by cause and the repair queue', () => {
         correctedById: null,
       });
       expect(Date.parse(res.body.record.recordedAt)).toBeGreaterThan(Date.now() - 60_000);
-      const lastFail = await t.orm.em.fork().findOneOrFail(TestRun, { unit: { serial: failedA }, verdict: 'fail' });
+      const lastFail = await t.orm.em.fork().findOneOrFail(TestRun, { unit: { serial: failedA }, verdict: RunVerdict.Fail });
       expect(res.body.record.failedRunId).toBe(lastFail.id);
       const event = await t.orm.em.fork().findOneOrFail(AuditEvent, { id: res.body.auditEventId });
       expect(event.action).toBe('unit.repair_returned');
@@ -228,7 +228,7 @@ describe('repair records, causes, Pareto by cause and the repair queue', () => {
       let n = 0;
       const unitIn = (lot: Lot) => {
         n += 1;
-        const u = em.create(Unit, { serial: `PARETO-${lot.code}-${n}`, lot, product: lot.product, state: UnitState.Passed });
+        const u = em.create(Unit, { serial: `PARETO-${lot.code}-${n}`, lot, product: lot.product, state: UnitState.Passed, testCount: 1, testCountAtReturn: 0 });
         em.persist(u);
         return u;
       };
@@ -305,9 +305,9 @@ describe('repair records, causes, Pareto by cause and the repair queue', () => {
       const em = t.orm.em.fork();
       const lot = await em.findOneOrFail(Lot, { id: lotA.id }, { populate: ['product'] });
       for (let i = 1; i <= 30; i++) {
-        em.persist(em.create(Unit, { serial: `K5A-0101-9${String(i).padStart(4, '0')}`, lot, product: lot.product, state: UnitState.InRepair, testCount: 1 }));
+        em.persist(em.create(Unit, { serial: `K5A-0101-9${String(i).padStart(4, '0')}`, lot, product: lot.product, state: UnitState.InRepair, testCount: 1, testCountAtReturn: 0 }));
       }
-      em.persist(em.create(Unit, { serial: 'K5A-0101-80001', lot, product: lot.product, state: UnitState.Failed, testCount: 3 }));
+      em.persist(em.create(Unit, { serial: 'K5A-0101-80001', lot, product: lot.product, state: UnitState.Failed, testCount: 3, testCountAtReturn: 0 }));
       await em.flush();
       // put failedA back on the queue with its failing run: fail it again and send it
       await h.simulate('FX-101', { defectRates: {}, serials: { [failedA]: 'wrong_feedback' } });
