@@ -129,4 +129,10 @@ export const apiPaths = {
   planVersionExport: (id: number) => `/plan-versions/${id}/export`,
   planCompare: (from: number, to: number) => `/plan-versions/${from}/compare/${to}`,
   planWhatIf: (id: number) => `/plan-versions/${id}/what-if`,
+  // H6 (issue 12): repair causes (engineers maintain them), repair records, corrections and the Pareto by cause
+  repairCauses: '/repair-causes',
+  repairCause: (id: number) => `/repair-causes/${id}`,
+  repairRecords: '/repair-records',
+  repairRecordCorrections: (id: number) => `/repair-records/${id}/corrections`,
+  repairPareto: '/repair-records/pareto',
 } as const;
