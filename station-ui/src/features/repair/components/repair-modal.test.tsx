@@ -29,7 +29,7 @@ beforeEach(() => {
 });
 afterEach(() => vi.unstubAllGlobals());
 
-describe('RepairModal: receive', () => {
+describe('RepairModal: receive', { timeout: 20_000 }, () => {
   it('requires a note and sends nothing without one', async () => {
     const { user } = renderModal({ serial: 'K5A-2648-00017', state: 'failed', step: 'receive' });
     await user.click(screen.getByRole('button', { name: 'Receive' }));
