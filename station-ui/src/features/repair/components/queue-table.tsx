@@ -31,7 +31,8 @@ export function QueueTable({ items, sort, onSort, onStep, busy }: QueueTableProp
     <SortableTh key={key} column={key} label={label} sort={sort} onSort={onSort} className={extra} />
   );
   return (
-    <Table.ScrollContainer minWidth={860}>
+    // laid out to fit 1024 px with the navigation open (no sideways scrolling); below that it scrolls
+    <Table.ScrollContainer minWidth={700}>
       <Table aria-label="Repair queue" aria-busy={busy} striped highlightOnHover verticalSpacing="xs" horizontalSpacing="xs" className={classes.table}>
         <Table.Thead>
           <Table.Tr>
@@ -39,9 +40,7 @@ export function QueueTable({ items, sort, onSort, onStep, busy }: QueueTableProp
             {th('state', 'State')}
             {th('lot', 'Lot')}
             {th('step', 'Failed step')}
-            {th('failedAt', 'Failed at')}
-            {th('station', 'Station')}
-            {th('tests', 'Tests', classes.num)}
+            {th('failedAt', 'Last failure')}
             <Table.Th>
               <span className={classes.hidden}>Repair steps</span>
             </Table.Th>
@@ -84,9 +83,10 @@ function QueueRow({ item, onStep }: { item: RepairQueueItem; onStep: (step: Repa
     failure = (
       <>
         <Text size="sm" lh={1.3}>
-          {f.stepName}: {f.name}
+          {f.stepName}
         </Text>
-        <Text size="xs" c="dimmed" className={classes.mono}>
+        <Text size="xs" c="dimmed" className={classes.figures}>
+          {f.name === f.stepName ? '' : `${f.name}: `}
           {shown.value} ({shown.limits})
         </Text>
       </>
@@ -119,11 +119,17 @@ function QueueRow({ item, onStep }: { item: RepairQueueItem; onStep: (step: Repa
         </Text>
       </Table.Td>
       <Table.Td className={classes.failure}>{failure}</Table.Td>
-      <Table.Td className={classes.mono}>{run ? formatWhen(run.finishedAt) : '—'}</Table.Td>
-      <Table.Td className={classes.mono}>{run?.station.code ?? '—'}</Table.Td>
-      <Table.Td className={`${classes.mono} ${classes.num}`}>{item.testCount}</Table.Td>
       <Table.Td>
-        <Group gap={6} wrap="nowrap" justify="flex-end">
+        <Text size="sm" className={classes.mono}>
+          {run ? formatWhen(run.finishedAt) : '—'}
+        </Text>
+        <Text size="xs" c="dimmed">
+          {run ? `${run.station.code} · ` : ''}
+          {item.testCount} {item.testCount === 1 ? 'test' : 'tests'}
+        </Text>
+      </Table.Td>
+      <Table.Td>
+        <Group gap={4} justify="flex-end" className={classes.steps}>
           {stepsFor(item.state).map((step) => (
             <Button key={step} size="xs" variant={step === 'record' ? 'filled' : 'light'} aria-label={`${STEP_BUTTON[step]} ${item.serial}`} onClick={() => onStep(step)}>
               {STEP_BUTTON[step]}
