@@ -171,6 +171,8 @@ describe('repair page (real browser)', () => {
     expect(await rows.count()).toBe(4);
     expect(await cutLabels(page)).toEqual([]);
     await page.getByRole('table', { name: 'Pareto by cause' }).getByText('Solder bridge').waitFor();
+    // the "returned for retest" message closes by itself; the picture shows the page under it
+    await page.waitForFunction(() => document.querySelectorAll('.mantine-Notification-root').length === 0, undefined, { timeout: 15_000 });
     await screenshot(page, 'repair-1920');
   });
 });

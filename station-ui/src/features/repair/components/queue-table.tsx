@@ -38,7 +38,6 @@ export function QueueTable({ items, sort, onSort, onStep, busy }: QueueTableProp
           <Table.Tr>
             {th('serial', 'Serial')}
             {th('state', 'State')}
-            {th('lot', 'Lot')}
             {th('step', 'Failed step')}
             {th('failedAt', 'Last failure')}
             <Table.Th>
@@ -85,8 +84,7 @@ function QueueRow({ item, onStep }: { item: RepairQueueItem; onStep: (step: Repa
         <Text size="sm" lh={1.3}>
           {f.stepName}
         </Text>
-        <Text size="xs" c="dimmed" className={classes.figures}>
-          {f.name === f.stepName ? '' : `${f.name}: `}
+        <Text size="xs" c="dimmed" className={classes.figures} title={f.name}>
           {shown.value} ({shown.limits})
         </Text>
       </>
@@ -94,10 +92,14 @@ function QueueRow({ item, onStep }: { item: RepairQueueItem; onStep: (step: Repa
   } else if (run?.failedStepKey) failure = run.failedStepKey;
   return (
     <Table.Tr data-serial={item.serial}>
-      <Table.Td className={classes.mono}>
-        <Link to={paths.unitHistory.href(item.serial)} className={classes.serialLink}>
+      <Table.Td>
+        <Link to={paths.unitHistory.href(item.serial)} className={`${classes.mono} ${classes.serialLink}`}>
           {item.serial}
         </Link>
+        {/* lot and product under the serial: one column less, so the row fits 1024 px */}
+        <Text size="xs" c="dimmed" className={classes.mono}>
+          {item.lot.code} · {item.lot.partNumber}
+        </Text>
       </Table.Td>
       <Table.Td className={classes.stateCell}>
         {/* the label keeps its full width: at 1024 px the squeezed column once cut it to "W…" */}
@@ -109,14 +111,6 @@ function QueueRow({ item, onStep }: { item: RepairQueueItem; onStep: (step: Repa
             {REASON_WORDS[item.reason]}
           </Text>
         )}
-      </Table.Td>
-      <Table.Td>
-        <Text size="sm" className={classes.mono}>
-          {item.lot.code}
-        </Text>
-        <Text size="xs" c="dimmed">
-          {item.lot.partNumber}
-        </Text>
       </Table.Td>
       <Table.Td className={classes.failure}>{failure}</Table.Td>
       <Table.Td>

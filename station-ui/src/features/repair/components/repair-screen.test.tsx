@@ -73,7 +73,6 @@ describe('RepairScreen', { timeout: 20_000 }, () => {
     expect(within(waiting).getByText('Waiting')).toBeInTheDocument();
     expect(waiting).toHaveTextContent('no attempts left');
     expect(waiting).toHaveTextContent('Output voltage, no load');
-    expect(waiting).toHaveTextContent('Vout: 5.412 V');
     expect(waiting).toHaveTextContent('3 tests');
     expect(waiting).toHaveTextContent('5.412 V');
     expect(waiting).toHaveTextContent('4.900 … 5.100 V');
