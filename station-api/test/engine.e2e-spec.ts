@@ -175,7 +175,7 @@ describe('run engine through the simulated fixture', () => {
       await aborting;
       expect(abortStatus).toBe(200);
       expect(r.verdict).toBe('aborted');
-      expect(r.errorMessage).toBe('Aborted by the operator');
+      expect(r.errorMessage).toBe('Stopped by the operator');
       expect(r.endReason).toBe('operator_stop');
       expect(sim.log.slice(-4)).toEqual(['LOAD OFF', 'OUTP OFF', 'LOAD?', 'OUTP?']);
       expect(sim.simulator.state()).toMatchObject({ sourceOn: false, loadOn: false });

@@ -25,6 +25,9 @@ describe('repair: POST /api/units/:serial/repair', () => {
   const repair = (serial: string, body: Record<string, unknown>, role = 'engineer') =>
     h.http().post(`/api/units/${encodeURIComponent(serial)}/repair`).set(auth(role)).send(body);
   const unitRow = (serial: string) => t.orm.em.fork().findOneOrFail(Unit, { serial });
+  // issue 12: returning for retest and scrapping need a repair record (symptom, cause, action taken)
+  let causeId: number;
+  const record = (symptom: string, actionTaken: string) => ({ symptom, causeId, actionTaken });
 
   beforeAll(async () => {
     t = await createTestApp();
@@ -36,6 +39,7 @@ describe('repair: POST /api/units/:serial/repair', () => {
     await h.simulate('FX-101', { defectRates: {}, serials: { [badSerial]: 'wrong_feedback', [scrapSerial]: 'wrong_feedback' } });
     maxAttempts = (await scan(badSerial).expect(200)).body.plan.maxAttempts;
     expect(maxAttempts).toBeGreaterThanOrEqual(1);
+    causeId = (await h.http().get('/api/repair-causes').set(auth('engineer')).expect(200)).body[0].id;
   });
   afterAll(async () => t?.close());
 
@@ -82,10 +86,10 @@ describe('repair: POST /api/units/:serial/repair', () => {
   });
 
   it('refuses a transition the state does not allow with 409 bad_repair_transition, naming the state and what is allowed', async () => {
-    const res = await repair(badSerial, { action: 'return', note: 'looks fine' }).expect(409);
+    const res = await repair(badSerial, { action: 'return', note: 'looks fine', ...record('none seen', 'none') }).expect(409);
     expect(res.body.details).toEqual({ code: 'bad_repair_transition', state: 'failed', allowed: ['receive', 'scrap'] });
     expect(res.body.message).toMatch(/is failed and waiting for repair, so it cannot be returned for retest\. .*receive it into repair or scrap it/);
-    const untested = await repair(goodSerial, { action: 'scrap', note: 'dropped' }, 'quality').expect(409);
+    const untested = await repair(goodSerial, { action: 'scrap', note: 'dropped', ...record('dropped', 'none') }, 'quality').expect(409);
     expect(untested.body.details).toMatchObject({ code: 'bad_repair_transition', state: 'untested', allowed: [] });
   });
 
@@ -107,7 +111,7 @@ describe('repair: POST /api/units/:serial/repair', () => {
     const runsBefore = await em.find(TestRun, { unit: unit.id }, { orderBy: { id: 'asc' } });
     const measurementsBefore = await em.count(Measurement, { run: { $in: runsBefore.map((r) => r.id) } });
 
-    const res = await repair(badSerial, { action: 'return', note: 'replaced R12 feedback divider' }, 'admin').expect(200);
+    const res = await repair(badSerial, { action: 'return', note: 'replaced R12 feedback divider', ...record('Vout high', 'replaced R12') }, 'admin').expect(200);
     expect(res.body).toMatchObject({ fromState: 'in_repair', toState: 'untested', unit: { state: 'untested', testCount: maxAttempts } });
     expect(await unitRow(badSerial)).toMatchObject({ testCountAtReturn: maxAttempts });
 
@@ -137,12 +141,12 @@ describe('repair: POST /api/units/:serial/repair', () => {
 
   it('scraps a failed unit (quality); the scan refuses it as scrapped and nothing moves it on', async () => {
     expect((await h.run(eol1, scrapSerial)).verdict).toBe('fail');
-    const res = await repair(scrapSerial, { action: 'scrap', note: 'cracked inductor, not worth rework' }, 'quality').expect(200);
+    const res = await repair(scrapSerial, { action: 'scrap', note: 'cracked inductor, not worth rework', ...record('Vout high', 'none, scrapped') }, 'quality').expect(200);
     expect(res.body).toMatchObject({ fromState: 'failed', toState: 'scrapped' });
     const refused = await scan(scrapSerial).expect(409);
     expect(refused.body.details.code).toBe('unit_not_testable');
     expect(refused.body.message).toContain('scrapped');
-    const again = await repair(scrapSerial, { action: 'return', note: 'try again' }).expect(409);
+    const again = await repair(scrapSerial, { action: 'return', note: 'try again', ...record('again', 'again') }).expect(409);
     expect(again.body).toMatchObject({ details: { code: 'bad_repair_transition', state: 'scrapped', allowed: [] } });
     expect(again.body.message).toMatch(/stays scrapped/);
     const q = (await h.http().get('/api/repair-queue').set(auth('operator')).expect(200)).body;
@@ -231,10 +235,11 @@ describe('retest policy: POST /api/units/:serial/send-to-repair', () => {
   });
 
   it('clears the mark when repair returns the unit for retest', async () => {
-    const repair = (action: string, note: string) => h.http().post(`/api/units/${failedOnce}/repair`).set(auth('engineer')).send({ action, note });
-    await repair('receive', 'on the bench').expect(200);
+    const repair = (body: Record<string, unknown>) => h.http().post(`/api/units/${failedOnce}/repair`).set(auth('engineer')).send(body);
+    await repair({ action: 'receive', note: 'on the bench' }).expect(200);
     expect((await queue()).find((i) => i.serial === failedOnce)?.reason).toBe('in_repair');
-    const back = await repair('return', 'replaced the feedback divider').expect(200);
+    const causeId = (await h.http().get('/api/repair-causes').set(auth('engineer')).expect(200)).body[0].id;
+    const back = await repair({ action: 'return', note: 'replaced the feedback divider', symptom: 'Vout high', causeId, actionTaken: 'replaced R12' }).expect(200);
     expect(back.body.unit).toMatchObject({ state: 'untested', sentToRepairAt: null });
     expect((await queue()).map((i) => i.serial)).not.toContain(failedOnce);
   });

@@ -199,6 +199,51 @@ describe('runs REST', () => {
     expect(missing.body.details.code).toBe('run_not_found');
   });
 
+  it('finds a serial by any part of it, in lower case too (issue 12)', async () => {
+    // serials[0]: passed, then retested by the engineer
+    const tail = serials[0].slice(-5);
+    const byPart = await h.http().get(`/api/runs?serial=${tail}`).set(auth()).expect(200);
+    expect(byPart.body.items.map((r: { serial: string }) => r.serial)).toContain(serials[0]);
+    const lower = await h.http().get(`/api/runs?serial=${serials[0].toLowerCase()}`).set(auth()).expect(200);
+    expect(lower.body.total).toBe(2);
+    expect(lower.body.items.every((r: { serial: string }) => r.serial === serials[0])).toBe(true);
+    const lowerPart = await h.http().get(`/api/runs?serial=${serials[0].slice(0, 8).toLowerCase()}`).set(auth()).expect(200);
+    expect(lowerPart.body.total).toBeGreaterThanOrEqual(2);
+  });
+
+  it('sorts by a whitelisted column either way and refuses any other (issue 12)', async () => {
+    const list = async (q: string) => (await h.http().get(`/api/runs?${q}`).set(auth()).expect(200)).body.items as { id: number; serial: string; attempt: number; verdict: string }[];
+    const bySerial = await list('sort=serial&limit=500');
+    expect(bySerial.map((r) => r.serial)).toEqual([...bySerial.map((r) => r.serial)].sort());
+    const bySerialDesc = await list('sort=serial&dir=desc&limit=500');
+    expect(bySerialDesc.map((r) => r.serial)).toEqual([...bySerial.map((r) => r.serial)].sort().reverse());
+    const byAttempt = await list('sort=attempt&dir=desc&limit=1');
+    expect(byAttempt[0].attempt).toBe(Math.max(...bySerial.map((r) => r.attempt)));
+    const byVerdict = await list('sort=verdict&limit=500');
+    expect(byVerdict.map((r) => r.verdict)).toEqual([...byVerdict.map((r) => r.verdict)].sort());
+    // default: newest first
+    const dflt = await list('limit=500');
+    expect(dflt.map((r) => r.id)).toEqual([...dflt.map((r) => r.id)].sort((a, b) => b - a));
+    const bad = await h.http().get('/api/runs?sort=password_hash').set(auth()).expect(400);
+    expect(bad.body.message).toContain('sort must be one of startedAt, serial, product, lot, station, fixture, operator, attempt, plan, verdict, failedStep, duration');
+    await h.http().get('/api/runs?sort=serial&dir=sideways').set(auth()).expect(400);
+  });
+
+  it('names the failed step as the plan does, beside its key (issue 12)', async () => {
+    const serial = take();
+    await h.simulate('FX-101', { defectRates: {}, serials: { [serial]: 'wrong_feedback' } });
+    const r = await h.run(eol1, serial);
+    expect(r.verdict).toBe('fail');
+    const detail = await h.detail(r.runId);
+    const step = detail.steps.find((s: { key: string }) => s.key === detail.failedStepKey);
+    const row = (await h.http().get(`/api/runs?serial=${serial}`).set(auth()).expect(200)).body.items[0];
+    expect(row).toMatchObject({ failedStepKey: detail.failedStepKey, failedStepName: step.name });
+    expect(row.failedStepName).not.toBe(row.failedStepKey);
+    const passed = (await h.http().get('/api/runs?verdict=pass&limit=1').set(auth()).expect(200)).body.items[0];
+    expect(passed.failedStepName).toBeNull();
+    await h.simulate('FX-101', { defectRates: {} });
+  });
+
   it('puts the live state into the station list too', async () => {
     const res = await h.http().get('/api/stations').set(auth()).expect(200);
     const eol = res.body.find((s: { code: string }) => s.code === 'EOL-1');

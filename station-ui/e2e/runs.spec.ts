@@ -88,6 +88,31 @@ describe('runs list and run detail (real browser)', () => {
     const row = rows.first();
     expect(await row.getAttribute('data-run-id')).toBe(String(made.fail!.id));
     expect(await row.innerText()).toContain(units.defective);
+    // issue 12: the failed step is shown by its name; the internal key is only its tooltip
+    const stepCell = row.locator('td[title]').last();
+    const key = await stepCell.getAttribute('title');
+    expect(key).toMatch(/\w/);
+    expect((await stepCell.innerText()).trim()).not.toBe(key);
+  });
+
+  it('sorts the runs by a column heading on the server, and finds a serial by a lower-case part (issue 12)', async () => {
+    await page.goto('/runs');
+    const rows = page.locator('table[aria-label="Runs"] tbody tr');
+    await rows.first().waitFor();
+    await page.getByRole('button', { name: 'Sort by serial, ascending' }).click();
+    await page.waitForURL(/\/runs\?sort=serial&dir=asc$/);
+    const serials = async () => rows.evaluateAll((trs) => trs.map((tr) => tr.getAttribute('aria-label')!.split(', ')[1]));
+    await page.waitForFunction(() => document.querySelector('table[aria-label="Runs"]')?.getAttribute('aria-busy') === 'false');
+    expect(await serials()).toEqual([...(await serials())].sort());
+    await page.getByRole('button', { name: 'Sort by serial, descending' }).click();
+    await page.waitForURL(/\/runs\?sort=serial&dir=desc$/);
+    await page.waitForFunction((first) => document.querySelector('table[aria-label="Runs"] tbody tr')?.getAttribute('aria-label')?.includes(first) === true, [units.good[0]!, units.defective].sort().reverse()[0]!);
+    await page.getByLabel('Serial', { exact: false }).and(page.locator('input')).fill(units.defective.slice(-9).toLowerCase());
+    await page.keyboard.press('Enter');
+    await page.waitForFunction(() => document.querySelectorAll('table[aria-label="Runs"] tbody tr').length === 1);
+    expect(await rows.first().getAttribute('data-verdict')).toBe('fail');
+    await page.goto('/runs?verdict=fail');
+    await rows.first().waitFor();
   });
 
   it('opens the failed run from the keyboard and shows the failing measurement and the traceability', async () => {

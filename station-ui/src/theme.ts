@@ -1,4 +1,5 @@
 import { Alert, createTheme, Modal, type MantineColorsTuple } from '@mantine/core';
+import { STOPPED_WORD } from '@contract/run-outcome';
 
 /*
  * Railwright's own palette, chosen by the team (not borrowed from another product). Each tuple runs light (0)
@@ -97,7 +98,8 @@ export const verdictLooks: Record<Verdict, VerdictLook> = {
     shape: 'triangle-exclamation',
     description: 'Fixture or software fault: the unit was not judged',
   },
-  aborted: { word: 'STOPPED', color: 'slate', shape: 'bar', description: 'Stopped before the end; the unit was not judged' },
+  // one word for a stopped run everywhere (issue 12), from the shared contract
+  aborted: { word: STOPPED_WORD, color: 'slate', shape: 'bar', description: 'Stopped before the end; the unit was not judged' },
   guard_fail: {
     word: 'FAIL',
     note: 'inside spec, outside guard band',

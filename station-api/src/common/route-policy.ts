@@ -100,6 +100,14 @@ export const ROUTE_POLICY: Readonly<Record<string, RoutePolicy>> = {
   'GET /api/repair-queue': { allow: ALL },
   'POST /api/units/:serial/repair': { allow: ['engineer', 'quality', 'admin'] },
   'POST /api/units/:serial/send-to-repair': { allow: TESTERS },
+  // repair records and causes (H6, issue 12): engineers maintain the causes; repair staff write records
+  'GET /api/repair-causes': { allow: ALL },
+  'POST /api/repair-causes': { allow: ENGINEERING },
+  'PATCH /api/repair-causes/:id': { allow: ENGINEERING },
+  'DELETE /api/repair-causes/:id': { allow: ENGINEERING },
+  'GET /api/repair-records': { allow: ALL },
+  'GET /api/repair-records/pareto': { allow: ALL },
+  'POST /api/repair-records/:id/corrections': { allow: ['engineer', 'quality', 'admin'] },
   // yield and capability (read-only aggregates)
   'GET /api/yield/figures': { allow: ['engineer', 'quality', 'admin'] },
   'GET /api/yield/pareto': { allow: ['engineer', 'quality', 'admin'] },

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { isRefusalCode, REFUSAL_CODES } from './refusal-codes';
-import { DECISIONS, decisionWords, END_REASONS, endReasonWords, RUN_VERDICT_WORDS } from './run-outcome';
+import { DECISIONS, decisionWords, END_REASONS, endReasonWords, RUN_VERDICT_WORDS, STOPPED_WORD } from './run-outcome';
 
 
 describe('shared contract lists', () => {
@@ -21,9 +21,11 @@ describe('shared contract lists', () => {
     expect(decisionWords('maybe')).toBeNull();
   });
 
-  it('words every end reason, and a stopped run is "stopped" everywhere', () => {
+  it('words every end reason, and a stopped run is "Stopped" everywhere (issue 12)', () => {
     for (const r of END_REASONS) expect(endReasonWords(r)).toMatch(/\w/);
     expect(endReasonWords(null)).toBeNull();
-    expect(RUN_VERDICT_WORDS.aborted).toBe('stopped');
+    expect(STOPPED_WORD).toBe('Stopped');
+    expect(RUN_VERDICT_WORDS.aborted).toBe('Stopped');
+    expect(endReasonWords('operator_stop')).toBe('stopped by the operator');
   });
 });

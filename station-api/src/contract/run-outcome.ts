@@ -55,13 +55,19 @@ export function decisionWords(decision: string | null | undefined): string | nul
   return decision && decision in DECISION_WORDS ? DECISION_WORDS[decision as Decision] : null;
 }
 
-/** The one word for each run verdict on every screen: `aborted` stays the API value, people read "stopped". */
+/**
+ * The one word for a stopped run on every screen, the station's verdict and the office screens alike (issue 12):
+ * the verdict value `aborted` stays in the database and the API; people read "Stopped".
+ */
+export const STOPPED_WORD = 'Stopped';
+
+/** The word for each run verdict on every screen: `aborted` stays the API value, people read {@link STOPPED_WORD}. */
 export const RUN_VERDICT_WORDS = {
   running: 'testing',
   pass: 'pass',
   fail: 'fail',
   error: 'error',
-  aborted: 'stopped',
+  aborted: STOPPED_WORD,
 } as const satisfies Record<'running' | 'pass' | 'fail' | 'error' | 'aborted', string>;
 
 export type RunVerdictWord = (typeof RUN_VERDICT_WORDS)[keyof typeof RUN_VERDICT_WORDS];

@@ -18,6 +18,9 @@ import { Hold } from '../holds/hold.entity';
 import { OutboxMessage } from '../mail/outbox-message.entity';
 // H1: limits from characterization data (issue 10)
 import { CharacterizationDataSet } from '../characterization/characterization-data-set.entity';
+// repair records and causes (H6, issue 12)
+import { RepairCause } from '../repair/repair-cause.entity';
+import { RepairRecord } from '../repair/repair-record.entity';
 
 /** Every entity, listed explicitly so the CLI, Nest and the tests see the same set. */
 export const ENTITIES = [
@@ -42,4 +45,7 @@ export const ENTITIES = [
   CharacterizationDataSet, // H1
   // fixtures and calibration (issue 10, H2)
   CalibrationRecord,
+  // repair records and causes (H6, issue 12)
+  RepairCause,
+  RepairRecord,
 ];

@@ -4,9 +4,13 @@ import { AuditService } from '../audit/audit.service';
 import { RunEngineService } from '../runs/run-engine.service';
 import { RunVerdict, TestRun } from '../runs/test-run.entity';
 import { Unit, UnitState } from '../units/unit.entity';
+import { User } from '../users/user.entity';
 import { toUnitDto } from '../units/units.service';
 import type { UnitDto } from '../units/dto/unit.dto';
-import type { RepairActionDto, RepairResultDto, SendToRepairDto } from './dto/repair.dto';
+import { ACTIONS_WITH_RECORD, type RepairActionDto, type RepairResultDto, type SendToRepairDto } from './dto/repair.dto';
+import { RepairDisposition, RepairRecord } from './repair-record.entity';
+import { recordForAudit } from './repair-record-views';
+import { activeCause, RepairRecordsService } from './repair-records.service';
 import { REPAIR_AUDIT_ACTIONS, repairTransition, type UnitStateName } from './repair-transitions';
 
 // same bound as the units route: longer input is a scan error
@@ -15,7 +19,8 @@ const MAX_SERIAL_LENGTH = 64;
 /**
  * Moves a unit through the repair loop (receive, return for retest, scrap). Changes only the unit's state
  * (and, on return, the point its retest attempts count from); runs and measurements are never touched.
- * Each step is written to the audit trail with the technician's note: that trail is the repair record.
+ * Each step is written to the audit trail; return for retest and scrap also write a repair record (symptom,
+ * cause, action taken, disposition), whose content the audit event carries in `after.repairRecord`.
  */
 @Injectable()
 export class RepairService {
@@ -23,10 +28,13 @@ export class RepairService {
     private readonly em: EntityManager,
     private readonly audit: AuditService,
     private readonly engine: RunEngineService,
+    private readonly records: RepairRecordsService,
   ) {}
 
   async act(rawSerial: string, dto: RepairActionDto, actorId: number): Promise<RepairResultDto> {
     const serial = checkedSerial(rawSerial);
+    const withRecord = ACTIONS_WITH_RECORD.includes(dto.action);
+    if (!withRecord) refuseRecordFields(dto);
     // one transaction: read, check and write the state with its audit event, so two technicians acting at
     // once cannot both move the unit from the same state (SQLite serialises the transactions)
     return this.em.fork().transactional(async (em) => {
@@ -40,6 +48,7 @@ export class RepairService {
         throw new ConflictException({ message: t.message, details: { code: 'bad_repair_transition', state: from, allowed: t.allowed } });
       }
       await this.refuseIfUnderTest(em, unit);
+      const cause = withRecord ? await activeCause(em, dto.causeId!) : null;
 
       const before = snapshot(unit);
       unit.state = t.to as UnitState;
@@ -48,20 +57,50 @@ export class RepairService {
         unit.testCountAtReturn = unit.testCount;
         unit.sentToRepairAt = undefined;
       }
+      let record: RepairRecord | null = null;
+      if (cause) {
+        const [lastFail] = await em.execute<{ id: number }[]>(
+          "select id from test_runs where unit_id = ? and verdict = 'fail' order by finished_at desc, id desc limit 1",
+          [unit.id],
+        );
+        record = em.create(RepairRecord, {
+          unit,
+          cause,
+          symptom: dto.symptom!,
+          actionTaken: dto.actionTaken!,
+          disposition: dto.action === 'scrap' ? RepairDisposition.Scrapped : RepairDisposition.Retest,
+          technician: em.getReference(User, actorId),
+          recordedAt: new Date(),
+          failedRun: lastFail ? em.getReference(TestRun, Number(lastFail.id)) : undefined,
+        });
+        em.persist(record);
+        // the record's id goes into the audit event
+        await em.flush();
+      }
       const event = await this.audit.record(
         {
           actor: actorId,
           action: REPAIR_AUDIT_ACTIONS[dto.action],
           entityType: 'unit',
           entityId: unit.id,
-          reason: dto.note,
+          reason: dto.note ?? record?.actionTaken,
           before,
-          after: snapshot(unit),
+          after: {
+            ...snapshot(unit),
+            ...(record && cause ? { repairRecord: recordForAudit({ ...record, causeId: cause.id, causeName: cause.name }) } : {}),
+          },
         },
         em,
       );
       await em.flush();
-      return { action: dto.action, fromState: from, toState: unit.state, auditEventId: event.id, unit: toUnitDto(unit) };
+      return {
+        action: dto.action,
+        fromState: from,
+        toState: unit.state,
+        auditEventId: event.id,
+        unit: toUnitDto(unit),
+        record: record ? await this.records.one(em, record.id) : null,
+      };
     });
   }
 
@@ -122,6 +161,16 @@ export class RepairService {
       });
     }
   }
+}
+
+/** Receiving a unit writes no record: record fields sent with it are refused, never silently dropped. */
+function refuseRecordFields(dto: RepairActionDto): void {
+  const sent = (['symptom', 'causeId', 'actionTaken'] as const).filter((k) => dto[k] !== undefined);
+  if (sent.length === 0) return;
+  throw new BadRequestException({
+    message: `A repair record is written when the unit is returned for retest or scrapped; receiving it takes a note only. Leave out ${sent.join(', ')}.`,
+    details: sent.map((field) => ({ field, problems: [`${field} belongs to return or scrap, not to ${dto.action}`] })),
+  });
 }
 
 function checkedSerial(raw: string): string {

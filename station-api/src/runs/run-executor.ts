@@ -157,7 +157,8 @@ export class RunExecutor {
       return {
         verdict: RunVerdict.Aborted,
         endReason: 'operator_stop',
-        errorMessage: isFixtureFault(err) ? `Aborted by the operator (${err.message})` : 'Aborted by the operator',
+        // one word for a stopped run everywhere (issue 12): "Stopped", never "aborted", in what people read
+        errorMessage: isFixtureFault(err) ? `Stopped by the operator (${err.message})` : 'Stopped by the operator',
       };
     }
     if (isFixtureFault(err)) return { verdict: RunVerdict.Error, endReason: 'fixture_fault', errorMessage: err.message };

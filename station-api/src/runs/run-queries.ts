@@ -35,6 +35,43 @@ export interface RunFilter {
   to?: string;
 }
 
+/** Columns the runs list may be sorted by, each mapped to its SQL on RUN_VIEW_SELECT's aliases (a whitelist). */
+export const RUN_SORTS = {
+  startedAt: 'r.started_at',
+  serial: 'u.serial collate nocase',
+  product: 'p.part_number collate nocase',
+  lot: 'l.code collate nocase',
+  station: 's.code collate nocase',
+  fixture: 'f.code collate nocase',
+  operator: 'coalesce(r.operator_name, op.display_name) collate nocase',
+  attempt: 'r.attempt',
+  plan: 'tp.code collate nocase',
+  verdict: 'r.verdict',
+  failedStep: 'r.failed_step_key',
+  duration: '(r.finished_at - r.started_at)',
+} as const;
+export type RunSort = keyof typeof RUN_SORTS;
+export const RUN_SORT_KEYS = Object.keys(RUN_SORTS) as RunSort[];
+
+/**
+ * ORDER BY for a whitelisted column; newest first by default. Ties go newest first by id so pages never
+ * overlap; empty values (a run still going has no duration) go last either way.
+ */
+export function runOrderSql(sort: RunSort = 'startedAt', dir: 'asc' | 'desc' = 'desc'): string {
+  const col = RUN_SORTS[sort];
+  const bare = col.replace(/ collate nocase$/, '');
+  const extra = sort === 'plan' ? `, pv.version ${dir}` : '';
+  return ` order by case when ${bare} is null then 1 else 0 end, ${col} ${dir}${extra}, r.started_at desc, r.id desc`;
+}
+
+/**
+ * The step names of the runs' failed steps, as the plan version each run used names them (read from the
+ * version's steps for the listed runs only; a key the plan does not know stays without a name).
+ */
+export const FAILED_STEP_NAME_SQL = (count: number) =>
+  `select r.id, (select json_extract(s.value, '$.name') from json_each(pv.steps) s where json_extract(s.value, '$.key') = r.failed_step_key) as name ` +
+  `from test_runs r join plan_versions pv on pv.id = r.plan_version_id where r.failed_step_key is not null and r.id in (${Array(count).fill('?').join(', ')})`;
+
 /** `%`, `_` and the escape character itself match literally in a serial search. */
 export function likePattern(part: string): string {
   return `%${part.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;

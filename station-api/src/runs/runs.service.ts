@@ -3,24 +3,34 @@ import { Injectable } from '@nestjs/common';
 import type { RunDetailDto, RunListDto, RunsQueryDto } from './dto/runs.dto';
 import type { PlanStep } from '../plans/plan-definition';
 import { RunRefusal } from './run-refusal';
-import { MEASUREMENT_VIEW_SELECT, RUN_VIEW_SELECT, rowToMeasurementView, rowToRunView, runFilterSql } from './run-queries';
+import { FAILED_STEP_NAME_SQL, MEASUREMENT_VIEW_SELECT, RUN_VIEW_SELECT, rowToMeasurementView, rowToRunView, runFilterSql, runOrderSql } from './run-queries';
 
 /** Read side of runs: lists with filters and one run with every measurement. */
 @Injectable()
 export class RunsService {
   constructor(private readonly em: EntityManager) {}
 
-  /** Newest first. `to` is exclusive so consecutive windows do not overlap. `serial` matches any part, any case. */
+  /**
+   * Newest first unless sorted by another whitelisted column. `to` is exclusive so consecutive windows do not
+   * overlap. `serial` matches any part, any case. Each run carries its failed step's name for people to read.
+   */
   async list(q: RunsQueryDto): Promise<RunListDto> {
     const conn = this.em.getConnection();
     const { where, params } = runFilterSql(q);
     const rows = await conn.execute<Record<string, unknown>[]>(
-      `${RUN_VIEW_SELECT}${where} order by r.started_at desc, r.id desc limit ? offset ?`,
+      `${RUN_VIEW_SELECT}${where}${runOrderSql(q.sort, q.dir ?? (q.sort && q.sort !== 'startedAt' ? 'asc' : 'desc'))} limit ? offset ?`,
       [...params, q.limit ?? 50, q.offset ?? 0],
     );
     // the count needs no join: every filter is on test_runs itself (the serial through a sub-select)
     const [{ total }] = await conn.execute<{ total: number }[]>(`select count(*) as total from test_runs r${where}`, params);
-    return { items: rows.map(rowToRunView), total: Number(total) };
+    const ids = rows.map((r) => Number(r.id));
+    const names = new Map<number, string>();
+    if (ids.length > 0) {
+      for (const n of await conn.execute<{ id: number; name: string | null }[]>(FAILED_STEP_NAME_SQL(ids.length), ids)) {
+        if (n.name !== null) names.set(Number(n.id), String(n.name));
+      }
+    }
+    return { items: rows.map((r) => ({ ...rowToRunView(r), failedStepName: names.get(Number(r.id)) ?? null })), total: Number(total) };
   }
 
   async get(id: number): Promise<RunDetailDto> {

@@ -167,4 +167,10 @@ export const apiPaths = {
   auditChoices: '/audit/choices',
   unit: (serial: string) => `/units/${encodeURIComponent(serial)}`,
   unitHistory: (serial: string) => `/units/${encodeURIComponent(serial)}/history`,
+  // H6 (issue 12): repair causes (engineers maintain them), repair records, corrections and the Pareto by cause
+  repairCauses: '/repair-causes',
+  repairCause: (id: number) => `/repair-causes/${id}`,
+  repairRecords: '/repair-records',
+  repairRecordCorrections: (id: number) => `/repair-records/${id}/corrections`,
+  repairPareto: '/repair-records/pareto',
 } as const;

@@ -1,9 +1,14 @@
 import { ApiProperty, ApiPropertyOptional, PickType } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
-import { IsInt, Max, Min } from 'class-validator';
+import { IsIn, IsInt, IsString, Max, MaxLength, Min, MinLength } from 'class-validator';
+import { Transform } from 'class-transformer';
 import { Optional } from '../../common/validation/presence';
 import { BoardLotDto, BoardStationRefDto } from '../../board/dto/board.dto';
 import { MeasurementDto } from '../../runs/dto/runs.dto';
+import { QUEUE_SORTS, type QueueSort } from '../repair-queue-sql';
+
+const SORT_KEYS = Object.keys(QUEUE_SORTS) as QueueSort[];
+const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 
 export class RepairQueueQueryDto {
   @ApiPropertyOptional({ description: 'only units of this lot' })
@@ -14,12 +19,32 @@ export class RepairQueueQueryDto {
   @Optional() @Type(() => Number) @IsInt({ message: 'stationId must be a whole number' }) @Min(1, { message: 'stationId must be 1 or more' })
   stationId?: number;
 
-  @ApiPropertyOptional({ default: 200, maximum: 1000 })
-  @Optional() @Type(() => Number) @IsInt() @Min(1) @Max(1000, { message: 'limit must be at most 1000' })
+  @ApiPropertyOptional({ enum: ['failed', 'in_repair'], description: 'only units in this state' })
+  @Optional() @IsIn(['failed', 'in_repair'], { message: 'state must be failed or in_repair' })
+  state?: 'failed' | 'in_repair';
+
+  @ApiPropertyOptional({ example: 'vout_nom', description: 'only units whose last failing run failed this step (step key)' })
+  @Optional() @Transform(trim) @IsString({ message: 'step must be the key of a plan step' }) @MinLength(1, { message: 'step is empty' }) @MaxLength(100, { message: 'step must be at most 100 characters' })
+  step?: string;
+
+  @ApiPropertyOptional({ example: '00017', description: 'any part of the serial, any case (a scanned repair tag gives the whole serial)' })
+  @Optional() @Transform(trim) @IsString({ message: 'search must be text' }) @MaxLength(64, { message: 'search must be at most 64 characters (a serial)' })
+  search?: string;
+
+  @ApiPropertyOptional({ enum: SORT_KEYS, default: 'failedAt' })
+  @Optional() @IsIn(SORT_KEYS, { message: `sort must be one of ${SORT_KEYS.join(', ')}` })
+  sort?: QueueSort;
+
+  @ApiPropertyOptional({ enum: ['asc', 'desc'], default: 'asc' })
+  @Optional() @IsIn(['asc', 'desc'], { message: 'dir must be asc or desc' })
+  dir?: 'asc' | 'desc';
+
+  @ApiPropertyOptional({ default: 25, maximum: 1000 })
+  @Optional() @Type(() => Number) @IsInt({ message: 'limit must be a whole number' }) @Min(1, { message: 'limit must be 1 or more' }) @Max(1000, { message: 'limit must be at most 1000' })
   limit?: number;
 
   @ApiPropertyOptional({ default: 0 })
-  @Optional() @Type(() => Number) @IsInt() @Min(0)
+  @Optional() @Type(() => Number) @IsInt({ message: 'offset must be a whole number' }) @Min(0, { message: 'offset must be 0 or more' })
   offset?: number;
 }
 
@@ -65,7 +90,13 @@ export class RepairQueueItemDto {
   lastFailingRun!: RepairRunDto | null;
 }
 
+export class RepairQueueStepDto {
+  @ApiProperty() key!: string;
+  @ApiProperty() name!: string;
+}
+
 export class RepairQueueDto {
-  @ApiProperty({ type: [RepairQueueItemDto], description: 'oldest failure first' }) items!: RepairQueueItemDto[];
-  @ApiProperty() total!: number;
+  @ApiProperty({ type: [RepairQueueItemDto], description: 'one page; oldest failure first unless sorted otherwise' }) items!: RepairQueueItemDto[];
+  @ApiProperty({ description: 'units matching the filters (all pages)' }) total!: number;
+  @ApiProperty({ type: [RepairQueueStepDto], description: 'the failed steps in the queue as filtered (except by step), to filter by' }) steps!: RepairQueueStepDto[];
 }

@@ -4,6 +4,7 @@ import { Equals, IsBoolean, IsIn, IsInt, IsISO8601, IsString, Max, MaxLength, Mi
 import type { LimitView, MeasurementView, RunView, StepOutline, UnitView } from '../../realtime/station-events';
 import { Optional } from '../../common/validation/presence';
 import { DECISIONS as DECISION_STATEMENTS, END_REASONS as RUN_END_REASONS } from '../../contract/run-outcome';
+import { RUN_SORT_KEYS, type RunSort } from '../run-queries';
 
 const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 
@@ -41,6 +42,10 @@ export class RunsQueryDto {
   @ApiPropertyOptional({ enum: RUN_VERDICTS }) @Optional() @IsIn(RUN_VERDICTS) verdict?: (typeof RUN_VERDICTS)[number];
   @ApiPropertyOptional({ description: 'runs started at or after (ISO 8601)' }) @Optional() @IsISO8601() from?: string;
   @ApiPropertyOptional({ description: 'runs started before (ISO 8601)' }) @Optional() @IsISO8601() to?: string;
+  @ApiPropertyOptional({ enum: RUN_SORT_KEYS, default: 'startedAt', description: 'the column to sort by' })
+  @Optional() @IsIn(RUN_SORT_KEYS, { message: `sort must be one of ${RUN_SORT_KEYS.join(', ')}` }) sort?: RunSort;
+  @ApiPropertyOptional({ enum: ['asc', 'desc'], description: 'default: desc for startedAt (newest first), asc for every other column' })
+  @Optional() @IsIn(['asc', 'desc'], { message: 'dir must be asc or desc' }) dir?: 'asc' | 'desc';
   @ApiPropertyOptional({ default: 50, maximum: 500 }) @Optional() @Type(() => Number) @IsInt() @Min(1) @Max(500) limit?: number;
   @ApiPropertyOptional({ default: 0 }) @Optional() @Type(() => Number) @IsInt() @Min(0) offset?: number;
 }
@@ -135,8 +140,13 @@ export class RunDetailDto extends RunDto {
   @ApiProperty({ type: [StepOutlineDto], description: 'the plan steps as they were run' }) steps!: StepOutlineDto[];
 }
 
+export class RunListItemDto extends RunDto {
+  @ApiProperty({ type: String, nullable: true, description: 'the failed step as its plan version names it (null: none failed, or a key the plan does not know)' })
+  failedStepName!: string | null;
+}
+
 export class RunListDto {
-  @ApiProperty({ type: [RunDto] }) items!: RunDto[];
+  @ApiProperty({ type: [RunListItemDto] }) items!: RunListItemDto[];
   @ApiProperty() total!: number;
 }
 

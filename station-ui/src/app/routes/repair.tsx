@@ -1,6 +1,7 @@
+import '@mantine/charts/styles.css';
 import { RepairScreen } from '@/features/repair/components/repair-screen';
 
-/** Repair: the queue of failed units and the repair steps on them (src/features/repair/). */
+/** Repair: the queue, the repair record form and the Pareto by cause (src/features/repair/). */
 export default function RepairRoute() {
   return <RepairScreen />;
 }

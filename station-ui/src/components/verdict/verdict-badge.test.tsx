@@ -9,7 +9,7 @@ const expected: Record<Verdict, { word: string; shape: string; color: string; no
   pass: { word: 'PASS', shape: 'circle-check', color: 'signalGreen' },
   fail: { word: 'FAIL', shape: 'square-cross', color: 'signalRed' },
   error: { word: 'ERROR', shape: 'triangle-exclamation', color: 'signalAmber' },
-  aborted: { word: 'STOPPED', shape: 'bar', color: 'slate' },
+  aborted: { word: 'Stopped', shape: 'bar', color: 'slate' },
   guard_fail: { word: 'FAIL', shape: 'square-cross', color: 'signalRed', note: 'inside spec, outside guard band' },
 };
 

@@ -15,6 +15,16 @@ describe('run filters in the address', () => {
     expect(q.to).toBe(new Date(2026, 2, 5).toISOString());
   });
 
+  it('keeps a sort other than newest first in the address and the query; ignores an unknown column (issue 12)', () => {
+    const { filters, sort } = runFiltersFromParams(new URLSearchParams('sort=serial&dir=desc'));
+    expect(sort).toEqual({ sort: 'serial', dir: 'desc' });
+    expect(runParamsFrom(filters, 1, sort).toString()).toBe('sort=serial&dir=desc');
+    expect(runsQueryFrom(filters, 1, sort)).toMatchObject({ sort: 'serial', dir: 'desc' });
+    expect(runFiltersFromParams(new URLSearchParams('sort=password&dir=asc')).sort).toEqual({ sort: 'startedAt', dir: 'desc' });
+    expect(runFiltersFromParams(new URLSearchParams('sort=lot')).sort).toEqual({ sort: 'lot', dir: 'asc' });
+    expect(runsQueryFrom(filters, 1)).not.toHaveProperty('sort');
+  });
+
   it('sends nothing malformed: bad ids, verdicts and dates are left out; page sets the offset', () => {
     const q = runsQueryFrom({ station: 'x', lot: '0', serial: ' ', verdict: 'great', from: '2026-13', to: '' }, 2);
     expect(q).toEqual({ stationId: undefined, lotId: undefined, serial: undefined, verdict: undefined, from: undefined, to: undefined, limit: 50, offset: 50 });

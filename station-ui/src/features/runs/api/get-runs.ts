@@ -2,10 +2,10 @@ import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query'
 import { apiPaths } from '@/config/paths';
 import { api } from '@/lib/api-client';
 import type { ApiQuery, ApiRunVerdict } from '@/lib/api-schema';
-import type { RunRow } from './run-types';
+import type { RunRow, RunSortColumn } from './run-types';
 
 /** The filters `GET /api/runs` accepts (generated from the server's query DTO); the screen always pages. */
-export type RunsQuery = ApiQuery<'RunsController_list'> & { limit: number; offset: number };
+export type RunsQuery = ApiQuery<'RunsController_list'> & { limit: number; offset: number; sort?: RunSortColumn; dir?: 'asc' | 'desc' };
 
 export const RUN_VERDICT_FILTERS = ['pass', 'fail', 'error', 'aborted', 'running'] as const satisfies readonly ApiRunVerdict[];
 export type RunVerdictFilter = (typeof RUN_VERDICT_FILTERS)[number];

@@ -5,8 +5,15 @@ import type { MeasurementDto, RunDetailDto, RunDto } from '@/lib/api-schema';
  * end reason and each measurement's decision statement (ILAC-G8:09/2019 §4.2.3).
  */
 
-/** One run as `GET /api/runs` lists it. */
-export type RunRow = RunDto;
+/**
+ * One run as `GET /api/runs` lists it. `failedStepName` (issue 12) is typed by hand until the lead regenerates
+ * lib/api-types.ts: the failed step as its plan version names it (null: none failed).
+ */
+export type RunRow = RunDto & { failedStepName?: string | null };
+
+/** The columns the server sorts the runs list by (station-api runs/run-queries.ts RUN_SORTS). */
+export const RUN_SORT_COLUMNS = ['startedAt', 'serial', 'product', 'lot', 'station', 'fixture', 'operator', 'attempt', 'plan', 'verdict', 'failedStep', 'duration'] as const;
+export type RunSortColumn = (typeof RUN_SORT_COLUMNS)[number];
 
 /** One stored measurement with its decision statement. */
 export type RunMeasurement = MeasurementDto;

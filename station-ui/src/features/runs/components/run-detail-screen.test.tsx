@@ -111,7 +111,7 @@ describe('RunDetailScreen', () => {
     serve(makeRunDetail({ verdict: 'aborted', endReason: 'server_shutdown', errorMessage: 'Stopped: station server shut down' }));
     const { container } = renderDetail();
     await screen.findByTestId('run-serial');
-    expect(container.querySelector('[data-verdict="aborted"]')).toHaveTextContent('STOPPED');
+    expect(container.querySelector('[data-verdict="aborted"]')).toHaveTextContent('Stopped');
     expect(screen.getByTestId('trace-error')).toHaveTextContent('Run ended: station server shut down');
     expect(screen.queryByText(/aborted/i)).toBeNull();
   });

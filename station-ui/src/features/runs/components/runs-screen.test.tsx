@@ -6,7 +6,7 @@ import { makeRun } from '../test-data';
 import { RunsScreen } from './runs-screen';
 
 const runs = [
-  makeRun(),
+  makeRun({ failedStepName: 'Output voltage at nominal load' }),
   makeRun({ id: 40, serial: 'K5A-2648-00001', verdict: 'pass', failedStepKey: null, durationMs: 7_900, startedAt: '2026-03-02T09:14:00.000Z' }),
 ];
 
@@ -46,7 +46,7 @@ beforeEach(() => {
 
 afterEach(() => vi.unstubAllGlobals());
 
-describe('RunsScreen', () => {
+describe('RunsScreen', { timeout: 20_000 }, () => {
   it('lists the runs of the response with their traceability columns and verdicts', async () => {
     renderScreen();
     const table = await screen.findByRole('table', { name: 'Runs' });
@@ -58,11 +58,42 @@ describe('RunsScreen', () => {
     expect(rows[0]).toHaveTextContent('FX-01');
     expect(rows[0]).toHaveTextContent('Ada Operator');
     expect(rows[0]).toHaveTextContent('TP-BK0503 v2');
-    expect(rows[0]).toHaveTextContent('vout_nominal');
+    // the step's name, not its internal key (issue 12)
+    expect(rows[0]).toHaveTextContent('Output voltage at nominal load');
+    expect(rows[0]).not.toHaveTextContent('vout_nominal');
     expect(rows[0]).toHaveTextContent('8.4 s');
     expect(within(rows[0]!).getByText('FAIL')).toBeInTheDocument();
     expect(within(rows[1]!).getByText('PASS')).toBeInTheDocument();
     expect(screen.getByTestId('runs-count')).toHaveTextContent('1–2 of 2 runs');
+  });
+
+  it('sorts by a column heading on the server and keeps the sort in the address (issue 12)', async () => {
+    const { user } = renderScreen('/runs?verdict=fail');
+    const table = await screen.findByRole('table', { name: 'Runs' });
+    expect(within(table).getByRole('columnheader', { name: /Started/ })).toHaveAttribute('aria-sort', 'descending');
+    expect(requested('/api/runs')[0]?.searchParams.get('sort')).toBeNull();
+    await user.click(within(table).getByRole('button', { name: 'Sort by serial, ascending' }));
+    await waitFor(() => expect(screen.getByTestId('location')).toHaveTextContent('/runs?verdict=fail&sort=serial&dir=asc'));
+    await waitFor(() => expect(requested('/api/runs').at(-1)?.searchParams.get('sort')).toBe('serial'));
+    expect(requested('/api/runs').at(-1)?.searchParams.get('dir')).toBe('asc');
+    await user.click(within(await screen.findByRole('table', { name: 'Runs' })).getByRole('button', { name: 'Sort by serial, descending' }));
+    await waitFor(() => expect(requested('/api/runs').at(-1)?.searchParams.get('dir')).toBe('desc'));
+  });
+
+  it('searches a serial by any part and in lower case, as typed (issue 12)', async () => {
+    const { user } = renderScreen();
+    await screen.findByRole('table', { name: 'Runs' });
+    expect(screen.getByText('Any part, any case, then Enter')).toBeInTheDocument();
+    await user.type(screen.getByLabelText('Serial', { exact: false, selector: 'input' }), 'k5a-2648{Enter}');
+    await waitFor(() => expect(requested('/api/runs').at(-1)?.searchParams.get('serial')).toBe('k5a-2648'));
+  });
+
+  it('calls a stopped run "Stopped" in the verdict filter (issue 12)', async () => {
+    const { user } = renderScreen();
+    await screen.findByRole('table', { name: 'Runs' });
+    await user.click(screen.getByLabelText('Verdict', { selector: 'input' }));
+    expect(await screen.findByRole('option', { name: 'Stopped' })).toBeInTheDocument();
+    expect(screen.queryByRole('option', { name: /aborted|STOPPED/ })).toBeNull();
   });
 
   it('sends the filters in the address to the server', async () => {
@@ -77,7 +108,7 @@ describe('RunsScreen', () => {
   it('writes the serial (on Enter), the dates and the verdict into the address', async () => {
     const { user } = renderScreen();
     await screen.findByRole('table', { name: 'Runs' });
-    await user.type(screen.getByLabelText('Serial', { exact: false }), 'K5A-2648-00002{Enter}');
+    await user.type(screen.getByLabelText('Serial', { exact: false, selector: 'input' }), 'K5A-2648-00002{Enter}');
     await waitFor(() => expect(screen.getByTestId('location')).toHaveTextContent('/runs?serial=K5A-2648-00002'));
 
     fireEvent.change(screen.getByLabelText('Started from'), { target: { value: '2026-03-02' } });

@@ -1,9 +1,9 @@
-import { Button, Group, Pagination, Paper, Select, Skeleton, Stack, Table, Text, TextInput } from '@mantine/core';
-import { IconSearch, IconX } from '@tabler/icons-react';
+import { Button, Group, Pagination, Paper, Select, Skeleton, Stack, Table, Text, TextInput, UnstyledButton } from '@mantine/core';
+import { IconArrowDown, IconArrowUp, IconSearch, IconSelector, IconX } from '@tabler/icons-react';
 import { useEffect, useState, type KeyboardEvent } from 'react';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
-import { RUN_VERDICT_WORDS } from '@contract/run-outcome';
-import type { RunRow as RunView } from '../api/run-types';
+import { RUN_VERDICT_WORDS, STOPPED_WORD } from '@contract/run-outcome';
+import type { RunRow as RunView, RunSortColumn } from '../api/run-types';
 import { ErrorNotice } from '@/components/errors/error-notice';
 import { PageHeader } from '@/components/layout/page-header';
 import { paths } from '@/config/paths';
@@ -11,7 +11,7 @@ import { useLotChoices } from '../api/get-lots';
 import { useRuns } from '../api/get-runs';
 import { useStationChoices } from '../api/get-stations';
 import { formatDuration, formatStamp } from '../format';
-import { emptyRunFilters, runFiltersFromParams, runParamsFrom, runsQueryFrom, RUNS_PAGE_SIZE, type RunFilters } from '../run-filters';
+import { emptyRunFilters, runFiltersFromParams, runParamsFrom, runsQueryFrom, RUNS_PAGE_SIZE, type RunFilters, type RunSort } from '../run-filters';
 import { RunVerdict } from './run-verdict';
 import classes from './runs.module.css';
 
@@ -19,15 +19,15 @@ const verdictChoices = [
   { value: 'pass', label: 'PASS' },
   { value: 'fail', label: 'FAIL' },
   { value: 'error', label: 'ERROR' },
-  { value: 'aborted', label: 'STOPPED' },
+  { value: 'aborted', label: STOPPED_WORD },
   { value: 'running', label: 'Testing now' },
 ];
 
 /** Engineering → Runs: every stored run, newest first, filtered through the address so a view can be shared. */
 export function RunsScreen() {
   const [params, setParams] = useSearchParams();
-  const { filters, page } = runFiltersFromParams(params);
-  const runs = useRuns(runsQueryFrom(filters, page));
+  const { filters, page, sort } = runFiltersFromParams(params);
+  const runs = useRuns(runsQueryFrom(filters, page, sort));
   const stations = useStationChoices();
   const lots = useLotChoices();
   const navigate = useNavigate();
@@ -36,7 +36,11 @@ export function RunsScreen() {
   const [serial, setSerial] = useState(filters.serial);
   useEffect(() => setSerial(filters.serial), [filters.serial]);
 
-  const apply = (change: Partial<RunFilters>) => setParams(runParamsFrom({ ...filters, ...change }, 1));
+  const apply = (change: Partial<RunFilters>) => setParams(runParamsFrom({ ...filters, ...change }, 1, sort));
+  const sortBy = (next: RunSort) => setParams(runParamsFrom(filters, 1, next));
+  const th = (column: RunSortColumn, label: string, className?: string, title?: string) => (
+    <SortableTh column={column} label={label} sort={sort} onSort={sortBy} className={className} title={title} />
+  );
   const clear = () => {
     setSerial('');
     setParams(new URLSearchParams());
@@ -95,7 +99,7 @@ export function RunsScreen() {
           />
           <TextInput
             label="Serial"
-            description="Whole serial, then Enter"
+            description="Any part, any case, then Enter"
             placeholder="e.g. K5A-2648-00017"
             w={210}
             className={classes.monoInput}
@@ -169,18 +173,18 @@ export function RunsScreen() {
             >
               <Table.Thead>
                 <Table.Tr>
-                  <Table.Th>Started</Table.Th>
-                  <Table.Th>Serial</Table.Th>
-                  <Table.Th>Product</Table.Th>
-                  <Table.Th>Lot</Table.Th>
-                  <Table.Th>Station</Table.Th>
-                  <Table.Th>Fixture</Table.Th>
-                  <Table.Th>Operator</Table.Th>
-                  <Table.Th className={classes.num} title="Attempt: 1 for the first test, 2 for the first retest …">Try</Table.Th>
-                  <Table.Th>Plan</Table.Th>
-                  <Table.Th>Verdict</Table.Th>
-                  <Table.Th>Failed step</Table.Th>
-                  <Table.Th className={classes.num}>Duration</Table.Th>
+                  {th('startedAt', 'Started')}
+                  {th('serial', 'Serial')}
+                  {th('product', 'Product')}
+                  {th('lot', 'Lot')}
+                  {th('station', 'Station')}
+                  {th('fixture', 'Fixture')}
+                  {th('operator', 'Operator')}
+                  {th('attempt', 'Try', classes.num, 'Attempt: 1 for the first test, 2 for the first retest …')}
+                  {th('plan', 'Plan')}
+                  {th('verdict', 'Verdict')}
+                  {th('failedStep', 'Failed step')}
+                  {th('duration', 'Duration', classes.num)}
                 </Table.Tr>
               </Table.Thead>
               <Table.Tbody>
@@ -216,7 +220,10 @@ export function RunsScreen() {
                     <Table.Td>
                       <RunVerdict verdict={r.verdict} />
                     </Table.Td>
-                    <Table.Td className={classes.mono}>{r.failedStepKey ?? <span className={classes.dim}>—</span>}</Table.Td>
+                    <Table.Td title={r.failedStepKey ?? undefined}>
+                      {/* the step's name as the plan gives it; its internal key only when the plan does not know it */}
+                      {r.failedStepName ?? r.failedStepKey ?? <span className={classes.dim}>—</span>}
+                    </Table.Td>
                     <Table.Td className={`${classes.mono} ${classes.num}`}>{formatDuration(r.durationMs)}</Table.Td>
                   </Table.Tr>
                 ))}
@@ -228,12 +235,30 @@ export function RunsScreen() {
               mt="md"
               total={pages}
               value={page}
-              onChange={(p) => setParams(runParamsFrom(filters, p))}
+              onChange={(p) => setParams(runParamsFrom(filters, p, sort))}
               aria-label="Run pages"
             />
           )}
         </>
       )}
     </>
+  );
+}
+
+const SORT_NAMES: Partial<Record<RunSortColumn, string>> = { attempt: 'attempt', startedAt: 'start time' };
+
+/** A column heading that sorts the list on the server: ascending first (newest first for the start time). */
+function SortableTh({ column, label, sort, onSort, className, title }: { column: RunSortColumn; label: string; sort: RunSort; onSort: (s: RunSort) => void; className?: string; title?: string }) {
+  const active = sort.sort === column;
+  const first: RunSort['dir'] = column === 'startedAt' ? 'desc' : 'asc';
+  const next: RunSort['dir'] = active ? (sort.dir === 'asc' ? 'desc' : 'asc') : first;
+  const Icon = !active ? IconSelector : sort.dir === 'asc' ? IconArrowUp : IconArrowDown;
+  return (
+    <Table.Th aria-sort={active ? (sort.dir === 'asc' ? 'ascending' : 'descending') : 'none'} className={className} title={title}>
+      <UnstyledButton className={classes.sortButton} onClick={() => onSort({ sort: column, dir: next })} aria-label={`Sort by ${SORT_NAMES[column] ?? label.toLowerCase()}, ${next === 'asc' ? 'ascending' : 'descending'}`}>
+        {label}
+        <Icon size={14} aria-hidden />
+      </UnstyledButton>
+    </Table.Th>
   );
 }

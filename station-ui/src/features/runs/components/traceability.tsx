@@ -40,7 +40,9 @@ export function calibrationLapsed(run: Pick<RunView, 'startedAt' | 'fixtureCalib
  * What the run was made with and by whom, as stored with the run (not as the plan or fixture stand today),
  * so a quality question about one unit is answered from this block alone.
  */
-export function Traceability({ run }: { run: RunView }) {
+export function Traceability({ run, steps = [] }: { run: RunView; steps?: { key: string; name: string }[] }) {
+  // the failed step as the plan names it (issue 12); the key only when the plan does not know it
+  const failedStepName = run.failedStepName ?? steps.find((s) => s.key === run.failedStepKey)?.name ?? null;
   const endReason = endReasonWords(run.endReason);
   return (
     <Paper withBorder radius="md" p="md" mb="lg" component="section" aria-labelledby="trace-title">
@@ -90,8 +92,12 @@ export function Traceability({ run }: { run: RunView }) {
             {run.attempt}
             {run.attempt > 1 && <span className={classes.dim}> (retest)</span>}
           </Field>
-          <Field label="Failed step" mono>
-            {run.failedStepKey ?? <span className={classes.dim}>none</span>}
+          <Field label="Failed step">
+            {run.failedStepKey ? (
+              <span title={run.failedStepKey}>{failedStepName ?? run.failedStepKey}</span>
+            ) : (
+              <span className={classes.dim}>none</span>
+            )}
           </Field>
           <Field label="Retest override" testId="trace-override">
             {run.overrideReason ? (

@@ -1,4 +1,5 @@
 import { Button, Kbd, Loader, Progress } from '@mantine/core';
+import { STOPPED_WORD } from '@contract/run-outcome';
 import { formatMeasured } from '@contract/value-format';
 import type { MeasurementView } from '@station-events';
 import { useEffect, useState, type CSSProperties, type ReactNode } from 'react';
@@ -13,14 +14,14 @@ import type { PrintState } from '../hooks/use-print-repair-tag';
 import classes from './result-panel.module.css';
 
 /**
- * The words of the operator's verdict. "STOPPED" rather than the office screens' "ABORTED": the operator
- * pressed "stop", and the word says what they did.
+ * The words of the operator's verdict. A stopped run reads "Stopped", the one word every screen uses for it
+ * (issue 12): the operator pressed "stop", and the word says what they did.
  */
 export const operatorVerdictWords: Record<FinishedVerdict, string> = {
   pass: 'PASS',
   fail: 'FAIL',
   error: 'ERROR',
-  aborted: 'STOPPED',
+  aborted: STOPPED_WORD,
 };
 
 /** Key that prints the repair tag of a failed unit (a function key: a scanner never sends one). */

@@ -273,7 +273,7 @@ describe('StationScreen', () => {
     await user.keyboard('{Escape}');
     await waitFor(() => expect(calls.some((c) => c.method === 'POST' && c.path === '/api/runs/41/abort')).toBe(true));
     await fire('run:finished', { stationId: 1, emittedAt: Date.now(), runId: 41, verdict: 'aborted', failures: [], errorMessage: 'Aborted by the operator', durationMs: 900, unit: sampleUnit });
-    expect(await screen.findByTestId('verdict-word')).toHaveTextContent('STOPPED');
+    expect(await screen.findByTestId('verdict-word')).toHaveTextContent('Stopped');
     expect(screen.getByTestId('verdict')).toHaveTextContent('Unit not judged — test it again.');
   });
 

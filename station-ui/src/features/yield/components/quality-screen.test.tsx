@@ -33,6 +33,8 @@ beforeEach(() => {
         return jsonResponse(200, [{ id: 1, code: 'LB-2644-01', state: 'released', product: { id: 1, partNumber: 'OB-BK0503', name: 'Buck' } }]);
       case '/api/products':
         return jsonResponse(200, [{ id: 1, partNumber: 'OB-BK0503', name: 'Buck module 12 V to 5 V' }]);
+      case '/api/repair-records/pareto':
+        return jsonResponse(200, { records: 0, bars: [] });
       case '/api/stations':
         return jsonResponse(200, [{ id: 1, code: 'EOL-1', name: 'End-of-line 1' }]);
       default:

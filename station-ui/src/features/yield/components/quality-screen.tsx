@@ -16,6 +16,7 @@ import { ControlChartPanel } from './control-chart-panel';
 import { ExportButton } from './export-button';
 import { FilterBar } from './filter-bar';
 import { ParetoPanel } from './pareto-panel';
+import { RepairCausePareto } from './repair-cause-pareto';
 import { TrendChart } from './trend-chart';
 import { YieldCards } from './yield-cards';
 
@@ -107,6 +108,7 @@ export function QualityScreen() {
         )}
         <Section title="Failure Pareto" actions={<ExportButton filters={filters} scope={{ only: 'failing' }} label="Export failing measurements (CSV)" />}>
           <ParetoPanel filters={filters} by={paretoBy} onByChange={(v) => setParam({ pareto: v })} selected={bar} onSelect={setBar} />
+          <RepairCausePareto filters={filters} />
         </Section>
         <Section
           title="Capability and control chart"
