@@ -19,7 +19,7 @@ export enum MeasurementVerdict {
 // trend of one quantity (Migration20261202140000)
 @Index({ properties: ['stepKey', 'quantity', 'measuredAt'] })
 // one quantity of the filtered runs: capability, control chart (Migration20261202155000)
-@Index({ properties: ['run', 'stepKey', 'quantity'] })
+@Index({ properties: ['run', 'stepKey', 'quantity', 'value'] })
 export class Measurement extends BaseEntity {
   @ManyToOne(() => TestRun)
   run!: TestRun;
