@@ -19,7 +19,7 @@ import { cpus, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { ms, quantile } from './bench-stats';
-import type { BuiltHistory } from './floor-bench-build';
+import { describeHistory, type BuiltHistory } from './floor-bench-build';
 import { yieldQuestions } from './yield-questions';
 
 function arg(name: string, fallback: number): number {
@@ -135,25 +135,6 @@ async function main(): Promise<void> {
   } finally {
     if (dir && !keep) rmSync(dir, { recursive: true, force: true });
     else if (dir) console.log(`kept ${dbPath} (delete it when done; --db ${dbPath} times it again)`);
-  }
-}
-
-/** What the builder reported, read back from a kept file (the build time is not known then). */
-async function describeHistory(path: string): Promise<BuiltHistory> {
-  const { MikroORM } = await import('@mikro-orm/sqlite');
-  const { createOrmConfig } = await import('../mikro-orm.config');
-  const orm = await MikroORM.init(createOrmConfig(path));
-  try {
-    const sql = (q: string) => orm.em.getConnection().execute(q) as Promise<Record<string, unknown>[]>;
-    await orm.getMigrator().up();
-    const [{ runs }] = await sql('select count(*) as runs from test_runs');
-    const [{ measurements }] = await sql('select count(*) as measurements from measurements');
-    const [{ units }] = await sql('select count(*) as units from units');
-    const lots = (await sql("select id, code from lots where code like 'LB-B%' order by id")).map((l) => ({ id: Number(l.id), code: String(l.code) }));
-    const stations = (await sql('select id, code from stations where fixture_id is not null order by code')).map((s) => ({ id: Number(s.id), code: String(s.code) }));
-    return { runs: Number(runs), measurements: Number(measurements), units: Number(units), lots, stations, buildMs: Number.NaN };
-  } finally {
-    await orm.close(true);
   }
 }
 
