@@ -6,6 +6,7 @@ import { existsSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { EnvironmentVariables, loadEnv, validateEnv } from './config/env.validation';
 import { createOrmConfig } from './mikro-orm.config';
+import { uiCacheHeaders } from './app.setup';
 import { AuditModule } from './audit/audit.module';
 import { AuthModule } from './auth/auth.module';
 import { FixturesModule } from './fixtures/fixtures.module';
@@ -31,7 +32,14 @@ function staticUi(): DynamicModule[] {
   const dist = loadEnv().UI_DIST;
   if (!dist || !existsSync(dist)) return [];
   // Express 5 syntax: '/api/{*path}' (the old '/api*' turns unknown API routes into 500s)
-  return [ServeStaticModule.forRoot({ rootPath: resolve(dist), exclude: ['/api/{*path}', '/socket.io/{*path}'] })];
+  return [
+    ServeStaticModule.forRoot({
+      rootPath: resolve(dist),
+      exclude: ['/api/{*path}', '/socket.io/{*path}'],
+      // hashed assets cached as immutable, index.html revalidated (issue 11): see uiCacheHeaders
+      serveStaticOptions: { setHeaders: uiCacheHeaders(resolve(dist)) },
+    }),
+  ];
 }
 
 @Module({

@@ -1,7 +1,8 @@
 import { BadRequestException, INestApplication, ValidationError, ValidationPipe } from '@nestjs/common';
 import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
 import compression from 'compression';
-import type { Express } from 'express';
+import type { Express, Response } from 'express';
+import { relative, sep } from 'node:path';
 import helmet from 'helmet';
 import { ApiExceptionFilter } from './common/filters/http-exception.filter';
 import { inspectJsonBodies, parseJsonBodies, refuseControlCharactersInUrl, requireJsonBodies } from './common/http/request-guards';
@@ -13,6 +14,25 @@ function flatten(errors: ValidationError[], parent = ''): { field: string; probl
     const own = e.constraints ? [{ field, problems: Object.values(e.constraints) }] : [];
     return [...own, ...flatten(e.children ?? [], field)];
   });
+}
+
+/** Cache lifetime of the UI's hashed build files: a year, the longest HTTP caches honour (RFC 9111 §5.2.2.1 max-age, common practice). */
+export const IMMUTABLE_ASSET_CACHE = 'public, max-age=31536000, immutable';
+/** index.html and every other unhashed UI file: the browser may keep it but must ask again before each use (RFC 9111 §5.2.2.4). */
+export const REVALIDATE_CACHE = 'no-cache';
+
+/**
+ * Cache-Control of the static UI (ServeStaticModule's `setHeaders`, also called for the index.html sent for
+ * client-side routes). Vite names every file under `assets/` after a hash of its content, so a changed file has
+ * a new name and the old one can be kept forever (`immutable`: no revalidation on reload). index.html names
+ * the current hashes, so it is revalidated on every visit (`no-cache`; its ETag makes that a 304). Issue 11:
+ * the hashed files went out with `max-age=0`.
+ */
+export function uiCacheHeaders(rootPath: string): (res: Response, filePath: string) => void {
+  return (res, filePath) => {
+    const hashed = relative(rootPath, filePath).startsWith(`assets${sep}`);
+    res.setHeader('Cache-Control', hashed ? IMMUTABLE_ASSET_CACHE : REVALIDATE_CACHE);
+  };
 }
 
 /** Global pipes, filter, prefix and OpenAPI; used by main.ts and by the e2e tests alike. */

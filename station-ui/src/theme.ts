@@ -1,4 +1,4 @@
-import { Alert, createTheme, Modal, type MantineColorsTuple } from '@mantine/core';
+import { Alert, createTheme, type MantineColorsTuple, type ModalProps } from '@mantine/core';
 import { STOPPED_WORD } from '@contract/run-outcome';
 
 /*
@@ -48,9 +48,11 @@ export const theme = createTheme({
   focusRing: 'auto',
   cursorType: 'pointer',
   components: {
-    Modal: Modal.extend({
+    // a plain object, not Modal.extend(): importing Modal here put the modal, its focus handling and
+    // floating-ui into the entry chunk every page (and the sign-in page) loads first (issue 11)
+    Modal: {
       styles: { title: { fontSize: 'var(--mantine-font-size-xl)', fontWeight: 700 } },
-    }),
+    } satisfies { styles: ModalProps['styles'] },
     // Refusals and errors are read by people standing at a station: not smaller than body text.
     Alert: Alert.extend({
       styles: { message: { fontSize: 'var(--mantine-font-size-md)' }, title: { fontSize: 'var(--mantine-font-size-md)' } },

@@ -187,3 +187,22 @@ export async function buildHistory(orm: MikroORM, runTarget: number, log: (s: st
   await sql('PRAGMA wal_checkpoint(TRUNCATE)');
   return { runs, measurements, units, lots, stations: stations.map(({ id, code }) => ({ id, code })), buildMs: performance.now() - t0 };
 }
+
+/** What the builder reported, read back from a kept file (the build time is not known then). */
+export async function describeHistory(path: string): Promise<BuiltHistory> {
+  const { MikroORM } = await import('@mikro-orm/sqlite');
+  const { createOrmConfig } = await import('../mikro-orm.config');
+  const orm = await MikroORM.init(createOrmConfig(path));
+  try {
+    const sql = (q: string) => orm.em.getConnection().execute(q) as Promise<Record<string, unknown>[]>;
+    await orm.getMigrator().up();
+    const [{ runs }] = await sql('select count(*) as runs from test_runs');
+    const [{ measurements }] = await sql('select count(*) as measurements from measurements');
+    const [{ units }] = await sql('select count(*) as units from units');
+    const lots = (await sql("select id, code from lots where code like 'LB-B%' order by id")).map((l) => ({ id: Number(l.id), code: String(l.code) }));
+    const stations = (await sql('select id, code from stations where fixture_id is not null order by code')).map((s) => ({ id: Number(s.id), code: String(s.code) }));
+    return { runs: Number(runs), measurements: Number(measurements), units: Number(units), lots, stations, buildMs: Number.NaN };
+  } finally {
+    await orm.close(true);
+  }
+}

@@ -10,11 +10,12 @@
  * (so a plan made worse by ANALYZE shows), and the database bytes per measurement.
  * Every timed region is one complete answer (SQL executed, rows read, objects built); nothing is cached
  * between repetitions except SQLite's page cache (warm cache, as on a running server).
- * Options: --runs <n> (default 100000), --reps <n> (default 30).
+ * Options: --runs <n> (default 100000), --reps <n> (default 30), --db <file> (time a file kept by
+ * `bench:yield --keep` instead of building one; the same builder made it).
  */
 import 'reflect-metadata';
 import { mkdtempSync, rmSync, statSync } from 'node:fs';
-import { cpus, tmpdir } from 'node:os';
+import { cpus, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { ms, quantile } from './bench-stats';
@@ -41,27 +42,31 @@ async function timeIt(reps: number, fn: (i: number) => Promise<unknown>): Promis
 async function main(): Promise<void> {
   const runTarget = arg('--runs', 100_000);
   const reps = arg('--reps', 30);
-  const dir = mkdtempSync(join(tmpdir(), 'railwright-floor-'));
-  const dbPath = join(dir, 'floor.sqlite');
+  const reuse = process.argv.indexOf('--db') > 0 ? process.argv[process.argv.indexOf('--db') + 1] : undefined;
+  const dir = reuse ? undefined : mkdtempSync(join(tmpdir(), 'railwright-floor-'));
+  const dbPath = reuse ?? join(dir!, 'floor.sqlite');
   Object.assign(process.env, {
     DATABASE_PATH: dbPath,
     SEED_HISTORY: '0',
     FIXTURE_SIM_TIMING: 'instant',
     LOG_LEVEL: 'error',
     UI_DIST: '',
-    JWT_SECRET: process.env.JWT_SECRET ?? 'floor-bench-secret-0123456789',
+    JWT_SECRET: process.env.JWT_SECRET ?? 'floor-bench-secret-0123456789-0123456789',
   });
   const log = (s: string) => console.log(s);
   try {
     const { MikroORM } = await import('@mikro-orm/sqlite');
     const { createOrmConfig } = await import('../mikro-orm.config');
-    const { buildHistory } = await import('./floor-bench-build');
-    const buildOrm = await MikroORM.init(createOrmConfig(dbPath));
+    const { buildHistory, describeHistory } = await import('./floor-bench-build');
     let built;
-    try {
-      built = await buildHistory(buildOrm, runTarget, log);
-    } finally {
-      await buildOrm.close(true);
+    if (reuse) built = await describeHistory(reuse);
+    else {
+      const buildOrm = await MikroORM.init(createOrmConfig(dbPath));
+      try {
+        built = await buildHistory(buildOrm, runTarget, log);
+      } finally {
+        await buildOrm.close(true);
+      }
     }
     const bytes = statSync(dbPath).size;
 
@@ -201,7 +206,7 @@ async function main(): Promise<void> {
         tableBytes = undefined;
       }
       console.log(`Railwright floor benchmark — ${new Date().toISOString()}`);
-      console.log(`machine: ${cpus().length} cores (${cpus()[0]?.model ?? 'unknown'}), Node ${process.version}`);
+      console.log(`machine: ${cpus().length} cores (${cpus()[0]?.model ?? 'unknown'}), Node ${process.version}; load average (1 min) at the end ${loadavg()[0].toFixed(1)}`);
       console.log(
         `database: ${built.runs} runs, ${built.units} units, ${built.lots.length} lots, ${measurementCount} measurements; built in ${(built.buildMs / 1000).toFixed(1)} s; ` +
           `${(bytes / 1e6).toFixed(1)} MB = ${(bytes / Number(measurementCount)).toFixed(0)} bytes per measurement (whole file)` +
@@ -225,7 +230,7 @@ async function main(): Promise<void> {
       await app.close();
     }
   } finally {
-    rmSync(dir, { recursive: true, force: true });
+    if (dir) rmSync(dir, { recursive: true, force: true });
   }
 }
 

@@ -9,7 +9,7 @@
  */
 import 'reflect-metadata';
 import { mkdtempSync, rmSync } from 'node:fs';
-import { cpus, tmpdir } from 'node:os';
+import { cpus, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 
@@ -112,10 +112,29 @@ async function main(): Promise<void> {
     }
     times.sort((a, b) => a - b);
     const mean = times.reduce((a, b) => a + b, 0) / times.length;
+    // where the call's time goes: the same three phases forVersion runs, timed one by one
+    const { rejudge } = await import('../what-if/rejudge');
+    const phases = { scope: [] as number[], read: [] as number[], rejudge: [] as number[] };
+    for (let i = 0; i < Math.min(repeat, 10); i++) {
+      const callEm = orm.em.fork();
+      const service = new WhatIfService(callEm, new PlansService(callEm, new AuditService(callEm)));
+      let t = performance.now();
+      const { runs: scoped } = await service.unitRuns(ctx.productId, { scope: 'last_units', units: 100_000 });
+      phases.scope.push(performance.now() - t);
+      t = performance.now();
+      const ms = await service.measurementsOf(scoped.map((r) => r.runId));
+      phases.read.push(performance.now() - t);
+      t = performance.now();
+      rejudge(draft.steps, scoped, ms);
+      phases.rejudge.push(performance.now() - t);
+    }
+    const med = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.ceil(xs.length / 2) - 1];
     console.log(`What-if benchmark on ${cpus().length} × ${cpus()[0]?.model ?? 'CPU'}, Node ${process.version}`);
     console.log(`stored ${stored} measurements of ${units} units in ${(insertMs / 1000).toFixed(1)} s (bulk insert)`);
     console.log(`re-judged ${last!.measurementsJudged} measurements, ${last!.unitsInScope} units: pass→fail ${last!.passToFail}, fail→pass ${last!.failToPass}`);
-    console.log(`call time over ${repeat} calls: median ${quantile(times, 0.5).toFixed(0)} ms, mean ${mean.toFixed(0)} ms, p95 ${quantile(times, 0.95).toFixed(0)} ms`);
+    console.log(`call time over ${repeat} calls: median ${quantile(times, 0.5).toFixed(0)} ms, mean ${mean.toFixed(0)} ms, p95 ${quantile(times, 0.95).toFixed(0)} ms, max ${times[times.length - 1].toFixed(0)} ms`);
+    console.log(`phases (median of ${phases.scope.length}): scope query ${med(phases.scope).toFixed(0)} ms, reading the measurements ${med(phases.read).toFixed(0)} ms, re-judging ${med(phases.rejudge).toFixed(0)} ms`);
+    console.log(`load average (1 min) at the end: ${loadavg()[0].toFixed(1)}`);
   } finally {
     await orm.close(true);
     rmSync(dir, { recursive: true, force: true });

@@ -1,7 +1,8 @@
 import { EntityManager } from '@mikro-orm/sqlite';
 import { Injectable } from '@nestjs/common';
 import { RunEngineService } from '../runs/run-engine.service';
-import { RunVerdict, TestRun } from '../runs/test-run.entity';
+import type { PlanStep } from '../plans/plan-definition';
+import type { RunVerdictName } from '../realtime/station-events';
 import { Station } from '../stations/station.entity';
 import type { BoardCurrentRunDto, BoardEntryDto, BoardLastRunDto } from './dto/board.dto';
 import { RunProgressTracker } from './run-progress.tracker';
@@ -45,35 +46,49 @@ export class BoardService {
     return entries;
   }
 
+  /*
+   * The current run and the last runs are read with hand-written SQL, only the columns the board shows:
+   * the ORM's findOne / find with populate cost ~10x the SQL once a year of history is stored (issue 11,
+   * docs/performance.md). The last runs use the index test_runs(station_id, finished_at).
+   */
+
   private async currentRun(em: EntityManager, stationId: number, runId: number): Promise<BoardCurrentRunDto | null> {
-    const run = await em.findOne(TestRun, { id: runId }, { populate: ['unit', 'planVersion'] });
+    const [run] = await em
+      .getConnection()
+      .execute<{ id: number; serial: string; started_at: number; steps: string | PlanStep[] }[]>(
+        'select r.id, u.serial, r.started_at, pv.steps from test_runs r join units u on u.id = r.unit_id join plan_versions pv on pv.id = r.plan_version_id where r.id = ?',
+        [runId],
+      );
     if (!run) return null;
-    const steps = run.planVersion.steps;
+    const steps = (typeof run.steps === 'string' ? JSON.parse(run.steps) : run.steps) as PlanStep[];
     // before the first step:started event the run is setting the fixture up for step 0
     const stepIndex = this.progress.progressOf(stationId, runId)?.stepIndex ?? 0;
     return {
-      id: run.id,
-      serial: run.unit.serial,
+      id: Number(run.id),
+      serial: run.serial,
       stepIndex,
       stepCount: steps.length,
       stepName: steps[stepIndex]?.name ?? null,
-      startedAt: run.startedAt.toISOString(),
+      startedAt: new Date(Number(run.started_at)).toISOString(),
     };
   }
 
   /** The station's latest finished runs of the shift running now: a wall screen must not show last week's. */
   private async lastRuns(em: EntityManager, stationId: number, shiftStart: Date): Promise<BoardLastRunDto[]> {
-    const runs = await em.find(
-      TestRun,
-      { station: stationId, verdict: { $ne: RunVerdict.Running }, finishedAt: { $ne: null, $gte: shiftStart } },
-      { populate: ['unit'], orderBy: { finishedAt: 'desc', id: 'desc' }, limit: BOARD_LAST_RUNS },
-    );
+    const runs = await em
+      .getConnection()
+      .execute<{ id: number; serial: string; verdict: RunVerdictName; failed_step_key: string | null; finished_at: number }[]>(
+        'select r.id, u.serial, r.verdict, r.failed_step_key, r.finished_at from test_runs r join units u on u.id = r.unit_id ' +
+          "where r.station_id = ? and r.verdict <> 'running' and r.finished_at is not null and r.finished_at >= ? " +
+          'order by r.finished_at desc, r.id desc limit ?',
+        [stationId, shiftStart.getTime(), BOARD_LAST_RUNS],
+      );
     return runs.map((r) => ({
-      id: r.id,
-      serial: r.unit.serial,
+      id: Number(r.id),
+      serial: r.serial,
       verdict: r.verdict,
-      failedStepKey: r.failedStepKey ?? null,
-      finishedAt: r.finishedAt!.toISOString(),
+      failedStepKey: r.failed_step_key ?? null,
+      finishedAt: new Date(Number(r.finished_at)).toISOString(),
     }));
   }
 }

@@ -18,6 +18,8 @@ export enum MeasurementVerdict {
 @Index({ properties: ['stepKey', 'measuredAt'] })
 // trend of one quantity (Migration20261202140000)
 @Index({ properties: ['stepKey', 'quantity', 'measuredAt'] })
+// one quantity of the filtered runs: capability, control chart (Migration20261202155000)
+@Index({ properties: ['run', 'stepKey', 'quantity', 'value'] })
 export class Measurement extends BaseEntity {
   @ManyToOne(() => TestRun)
   run!: TestRun;

@@ -41,6 +41,8 @@ export enum RunEndReason {
 @Index({ properties: ['station', 'finishedAt'] })
 @Index({ properties: ['unit', 'verdict'] })
 @Index({ properties: ['verdict', 'startedAt'] })
+// issue 12 (Migration20261202155000): first and latest judged run of a unit
+@Index({ properties: ['unit', 'attempt'] })
 // at most one running run per unit and per station: partial unique indexes created by Migration20261202130000
 // (MikroORM cannot declare a partial index on an entity)
 export class TestRun extends BaseEntity {

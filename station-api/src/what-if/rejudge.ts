@@ -61,11 +61,20 @@ function rejudgeOne(limit: LimitSpec, m: StoredMeasurement): 'pass' | 'fail' {
  * @param maxAffected longest list of affected units returned (counts are always complete)
  */
 export function rejudge(steps: PlanStep[], runs: UnitRun[], measurements: StoredMeasurement[], maxAffected = 500): RejudgeResult {
+  // a plan has a few dozen step/quantity pairs: parse each once, not once per stored row (what-if p95, issue 11)
+  const keys = new Map<string, Map<string, string>>();
+  const keyOf = (stepKey: string, quantity: string): string => {
+    let byQuantity = keys.get(stepKey);
+    if (!byQuantity) keys.set(stepKey, (byQuantity = new Map()));
+    let key = byQuantity.get(quantity);
+    if (key === undefined) byQuantity.set(quantity, (key = measureKey(stepKey, quantity)));
+    return key;
+  };
   const byRun = new Map<number, Map<string, StoredMeasurement>>();
   for (const m of measurements) {
     let map = byRun.get(m.runId);
     if (!map) byRun.set(m.runId, (map = new Map()));
-    map.set(measureKey(m.stepKey, m.quantity), m);
+    map.set(keyOf(m.stepKey, m.quantity), m);
   }
   const limits = steps.flatMap((s) => s.limits.map((l) => ({ step: s, limit: l, key: measureKey(s.key, l.key) })));
   const measuredSomewhere = limits.map((x) => runs.some((r) => byRun.get(r.runId)?.has(x.key)));
@@ -97,12 +106,13 @@ export function rejudge(steps: PlanStep[], runs: UnitRun[], measurements: Stored
     const changedLimits: AffectedUnit['limits'] = [];
     const stepBefore = new Map<string, 'pass' | 'fail'>();
     const stepAfter = new Map<string, 'pass' | 'fail'>();
-    limits.forEach(({ step, limit, key }, i) => {
-      if (!measuredSomewhere[i]) return;
+    for (let i = 0; i < limits.length; i++) {
+      const { step, limit, key } = limits[i];
+      if (!measuredSomewhere[i]) continue;
       const m = stored?.get(key);
       if (!m) {
         missing = true;
-        return;
+        continue;
       }
       judged++;
       perLimit[i].measured++;
@@ -118,7 +128,7 @@ export function rejudge(steps: PlanStep[], runs: UnitRun[], measurements: Stored
       else if (!stepBefore.has(step.key)) stepBefore.set(step.key, 'pass');
       if (after === 'fail') stepAfter.set(step.key, 'fail');
       else if (!stepAfter.has(step.key)) stepAfter.set(step.key, 'pass');
-    });
+    }
     for (const [key, after] of stepAfter) {
       const before = stepBefore.get(key);
       const counts = perStep.get(key)!;

@@ -78,11 +78,12 @@ export class WhatIfService {
     const CHUNK = 900;
     for (let i = 0; i < runIds.length; i += CHUNK) {
       const ids = runIds.slice(i, i + CHUNK);
-      const rows = await conn.execute<{ run_id: number; step_key: string; quantity: string; value: number | null; verdict: string; uncertainty: number }[]>(
-        `select run_id, step_key, quantity, value, verdict, uncertainty from measurements where run_id in (${ids.map(() => '?').join(',')})`,
+      // the rows come back already named as StoredMeasurement: no second object per row (what-if p95, issue 11)
+      const rows = await conn.execute<StoredMeasurement[]>(
+        `select run_id as runId, step_key as stepKey, quantity, value, verdict, uncertainty from measurements where run_id in (${ids.map(() => '?').join(',')})`,
         ids,
       );
-      for (const r of rows) out.push({ runId: r.run_id, stepKey: r.step_key, quantity: r.quantity, value: r.value, verdict: r.verdict, uncertainty: r.uncertainty });
+      for (const r of rows) out.push(r);
     }
     return out;
   }

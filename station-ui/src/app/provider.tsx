@@ -1,5 +1,4 @@
 import { MantineProvider } from '@mantine/core';
-import { Notifications } from '@mantine/notifications';
 import { QueryClientProvider, type QueryClient } from '@tanstack/react-query';
 import type { ReactNode } from 'react';
 import { queryClient as defaultQueryClient } from '@/lib/query-client';
@@ -10,11 +9,13 @@ interface AppProviderProps {
   queryClient?: QueryClient;
 }
 
-/** Theme, notifications and the query cache: everything a screen needs around it. */
+/**
+ * Theme and the query cache: everything a screen needs around it. The notifications host is mounted with the
+ * app shell (router.tsx), so the sign-in page does not load it (issue 11).
+ */
 export function AppProvider({ children, queryClient = defaultQueryClient }: AppProviderProps) {
   return (
     <MantineProvider theme={theme} defaultColorScheme="light">
-      <Notifications position="top-right" autoClose={5000} />
       <QueryClientProvider client={queryClient}>{children}</QueryClientProvider>
     </MantineProvider>
   );

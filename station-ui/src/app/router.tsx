@@ -4,13 +4,30 @@ import { createBrowserRouter, type RouteObject } from 'react-router-dom';
 import { pages, paths } from '@/config/paths';
 import { setUnauthorizedHandler } from '@/lib/api-client';
 import { clearSession, sessionNotice } from '@/lib/auth';
-import { AppRoot } from './routes/app-root';
 import { RouteError } from './routes/route-error';
 
 type LazyModule = { default: ComponentType };
 
 /** Each screen is its own chunk: the operator's station does not download the admin screens. */
 const lazyPage = (load: () => Promise<LazyModule>) => async () => ({ Component: (await load()).default });
+
+/**
+ * The app shell (navigation, header, its icons, the wall-board switch) is a chunk of its own too, loaded with
+ * the first page behind sign-in: the sign-in page loads only the entry and its own chunk (issue 11).
+ */
+const lazyShell = async () => {
+  const [{ AppRoot }, { Notifications }] = await Promise.all([import('./routes/app-root'), import('@mantine/notifications')]);
+  return {
+    Component: function Shell() {
+      return (
+        <>
+          <Notifications position="top-right" autoClose={5000} />
+          <AppRoot />
+        </>
+      );
+    },
+  };
+};
 
 export const routes: RouteObject[] = [
   {
@@ -20,7 +37,7 @@ export const routes: RouteObject[] = [
   },
   {
     path: paths.home.path,
-    element: <AppRoot />,
+    lazy: lazyShell,
     errorElement: <RouteError />,
     children: [
       {
