@@ -108,6 +108,29 @@ export const ACTION_WORDS: Readonly<Record<string, Phrase>> = {
   'unit.repair_received': (f) => `Received ${unitName(f)} in repair`,
   'unit.repair_returned': (f) => `Returned ${unitName(f)} from repair for retest`,
   'unit.scrapped': (f) => `Scrapped ${unitName(f)}`,
+  // limits from characterization data
+  'characterization.uploaded': (f) => {
+    const n = str(f.after?.units);
+    return `Uploaded the characterization data set ${str(f.after?.name) ?? `#${f.entityId ?? '?'}`}${n ? ` (${n} units)` : ''}`;
+  },
+  'characterization.limits_accepted': (f) => {
+    const set = f.after?.dataSet as Record<string, unknown> | undefined;
+    const name = str(set?.name);
+    return `Put limits from the data set ${name ?? `#${f.entityId ?? '?'}`} into ${planVersionName(f)}${str(f.after?.step) ? `, step ${str(f.after?.step)}` : ''}`;
+  },
+  // holds and alerts
+  'hold_rule.created': (f) => `Added a hold rule${str(f.after?.partNumber) ? ` for ${str(f.after?.partNumber)}` : ''}`,
+  'hold_rule.switched_off': () => 'Switched a hold rule off',
+  'hold_rule.switched_on': () => 'Switched a hold rule on again',
+  'hold.placed': (f) => `Put ${named(f, 'lot', 'lotCode')} on hold${str(f.after?.holdReason) ? `: ${str(f.after?.holdReason)}` : ''}`,
+  'hold.lifted': (f) => `Lifted the hold on ${named(f, 'lot', 'lotCode')}`,
+  // repair causes and records
+  'repair_cause.created': (f) => `Added the repair cause "${str(f.after?.name) ?? '?'}"`,
+  'repair_cause.renamed': (f) => `Renamed the repair cause "${str(f.before?.name) ?? '?'}" to "${str(f.after?.name) ?? '?'}"`,
+  'repair_cause.switched_off': (f) => `Switched the repair cause "${str(pick(f, 'name')) ?? '?'}" off`,
+  'repair_cause.switched_on': (f) => `Switched the repair cause "${str(pick(f, 'name')) ?? '?'}" on again`,
+  'repair_cause.deleted': (f) => `Deleted the unused repair cause "${str(f.before?.name) ?? '?'}"`,
+  'unit.repair_record_corrected': (f) => `Corrected a repair record of ${unitName(f)} with a new record`,
   // runs
   'run.safety_confirmed': (f) => `Confirmed it is safe to power ${runName(f)}`,
   'run.retest_override': (f) => `Allowed an extra attempt${str(f.after?.attempt) ? ` (attempt ${str(f.after?.attempt)})` : ''} for ${unitName(f)}`,

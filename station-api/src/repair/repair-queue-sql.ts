@@ -42,13 +42,28 @@ function likePattern(part: string): string {
 export function queueCte(f: QueueFilter, withStepFilter = true): { sql: string; params: unknown[] } {
   const unitWhere: string[] = ["u.state in ('failed', 'in_repair')"];
   const params: unknown[] = [];
-  if (f.state) (unitWhere.push('u.state = ?'), params.push(f.state));
-  if (f.lotId) (unitWhere.push('u.lot_id = ?'), params.push(f.lotId));
+  if (f.state) {
+    unitWhere.push('u.state = ?');
+    params.push(f.state);
+  }
+  if (f.lotId) {
+    unitWhere.push('u.lot_id = ?');
+    params.push(f.lotId);
+  }
   // LIKE is case-insensitive for ASCII in SQLite, which is every character a serial may hold
-  if (f.search) (unitWhere.push("u.serial like ? escape '\\'"), params.push(likePattern(f.search)));
+  if (f.search) {
+    unitWhere.push("u.serial like ? escape '\\'");
+    params.push(likePattern(f.search));
+  }
   const rowWhere: string[] = ['reason is not null'];
-  if (f.stationId) (rowWhere.push('station_id = ?'), params.push(f.stationId));
-  if (withStepFilter && f.step) (rowWhere.push('failed_step_key = ?'), params.push(f.step));
+  if (f.stationId) {
+    rowWhere.push('station_id = ?');
+    params.push(f.stationId);
+  }
+  if (withStepFilter && f.step) {
+    rowWhere.push('failed_step_key = ?');
+    params.push(f.step);
+  }
   const sql = `with waiting as (
   select u.id as unit_id, u.serial, u.state, u.sent_to_repair_at, u.test_count, u.test_count_at_return, u.lot_id, l.code as lot_code, p.part_number,
     (select r.id from test_runs r where r.unit_id = u.id and r.verdict = 'fail' order by r.finished_at desc, r.id desc limit 1) as run_id

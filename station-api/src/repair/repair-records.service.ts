@@ -92,11 +92,23 @@ export class RepairRecordsService {
     const f = resolveFilter(q);
     const parts: string[] = ['not exists (select 1 from repair_records x where x.corrects_id = rr.id)'];
     const params: unknown[] = [];
-    if (f.lotId !== undefined) (parts.push('u.lot_id = ?'), params.push(f.lotId));
-    if (f.productId !== undefined) (parts.push('u.product_id = ?'), params.push(f.productId));
+    if (f.lotId !== undefined) {
+      parts.push('u.lot_id = ?');
+      params.push(f.lotId);
+    }
+    if (f.productId !== undefined) {
+      parts.push('u.product_id = ?');
+      params.push(f.productId);
+    }
     // dates are stored as epoch milliseconds (the ORM's SQLite mapping)
-    if (f.fromMs !== undefined) (parts.push('rr.recorded_at >= ?'), params.push(f.fromMs));
-    if (f.toMs !== undefined) (parts.push('rr.recorded_at < ?'), params.push(f.toMs));
+    if (f.fromMs !== undefined) {
+      parts.push('rr.recorded_at >= ?');
+      params.push(f.fromMs);
+    }
+    if (f.toMs !== undefined) {
+      parts.push('rr.recorded_at < ?');
+      params.push(f.toMs);
+    }
     const rows = await this.em.execute<{ cause_id: number; name: string; n: number }[]>(
       `select c.id as cause_id, c.name, count(*) as n
        from repair_records rr join units u on u.id = rr.unit_id join repair_causes c on c.id = rr.cause_id

@@ -141,7 +141,6 @@ export const apiPaths = {
   /** the products a new lot can be opened for */
   products: '/products',
   // holds and alerts (issue 12, features/holds): rules per product, holds and lifting, alerts, the e-mail outbox
-  products: '/products',
   holdRules: '/hold-rules',
   holdRule: (id: number) => `/hold-rules/${id}`,
   holdRuleQuantities: '/hold-rules/quantities',

@@ -47,7 +47,6 @@ const MULTIPART_ROUTES = new Set([
   // H1: characterization data (CSV upload)
   'POST /api/characterization/data-sets',
 ]);
-const MULTIPART_ROUTES = new Set(['POST /api/plans/import']);
 /** Upload routes with an id in the path (checked as patterns: `METHOD /api/path`) */
 const MULTIPART_ROUTE_PATTERNS: readonly RegExp[] = [
   // fixtures and calibration (issue 10, H2): a calibration record with its certificate PDF
