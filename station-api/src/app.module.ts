@@ -5,6 +5,7 @@ import { ServeStaticModule } from '@nestjs/serve-static';
 import { existsSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { EnvironmentVariables, loadEnv, validateEnv } from './config/env.validation';
+import { SqliteDriver } from '@mikro-orm/sqlite';
 import { createOrmConfig } from './mikro-orm.config';
 import { uiCacheHeaders } from './app.setup';
 import { AuditModule } from './audit/audit.module';
@@ -46,6 +47,8 @@ function staticUi(): DynamicModule[] {
   imports: [
     ConfigModule.forRoot({ isGlobal: true, ignoreEnvFile: false, validate: validateEnv, cache: true }),
     MikroOrmModule.forRootAsync({
+      // named here as well as in the config, so Nest can provide the driver's own EntityManager
+      driver: SqliteDriver,
       inject: [ConfigService],
       useFactory: (config: ConfigService<EnvironmentVariables, true>) =>
         createOrmConfig(config.get('DATABASE_PATH', { infer: true })),
