@@ -17,8 +17,42 @@ export interface paths {
             path?: never;
             cookie?: never;
         };
-        /** Audit trail, newest first, filtered by entity and action */
+        /** Audit trail, newest first: filtered by object, person, action, date range and text; each record in words with its link */
         get: operations["AuditController_list"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/audit/choices": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Object types and people that appear in the trail (for the filters) */
+        get: operations["AuditController_choices"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/audit/export": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** The same filtered records as a CSV file (RFC 4180; cells that look like formulas are quoted) */
+        get: operations["AuditController_exportCsv"];
         put?: never;
         post?: never;
         delete?: never;
@@ -95,6 +129,75 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/characterization/data-sets": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** All characterization data sets, newest first (without their values) */
+        get: operations["CharacterizationController_list"];
+        put?: never;
+        /** Upload pilot-build measurements as CSV (docs/characterization-data.md); a file with any problem stores nothing */
+        post: operations["CharacterizationController_upload"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/characterization/data-sets/{id}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** One data set with its serials and values */
+        get: operations["CharacterizationController_get"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/characterization/data-sets/{id}/accept": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /** Put proposed limits into one limit of a draft plan version (409 for a released version); audited with the statistics */
+        post: operations["CharacterizationController_accept"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/characterization/data-sets/{id}/analysis": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Histogram, mean, σ, normality test, Cp/Cpk/Pp/Ppk with 95 % intervals and ppm outside proposed limits, and suggested limits */
+        get: operations["CharacterizationController_analyse"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/fixtures": {
         parameters: {
             query?: never;
@@ -102,7 +205,7 @@ export interface paths {
             path?: never;
             cookie?: never;
         };
-        /** All fixtures with calibration and contact-cycle status */
+        /** All fixtures with station, calibration and contact-cycle status, warnings and blocking reasons */
         get: operations["FixturesController_list"];
         put?: never;
         /** Register a fixture */
@@ -137,10 +240,28 @@ export interface paths {
             path?: never;
             cookie?: never;
         };
-        get?: never;
+        /** The fixture's calibration records, newest calibration first */
+        get: operations["FixturesController_listCalibrations"];
         put?: never;
-        /** Record a calibration (dates, certificate, uncertainties); audited */
+        /** Record a calibration as a new record (dates, certificate number and PDF, uncertainties); audited */
         post: operations["FixturesController_recordCalibration"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/fixtures/{id}/calibrations/{calibrationId}/certificate": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Download the certificate PDF of a calibration record */
+        get: operations["FixturesController_certificate"];
+        put?: never;
+        post?: never;
         delete?: never;
         options?: never;
         head?: never;
@@ -156,8 +277,128 @@ export interface paths {
         };
         get?: never;
         put?: never;
-        /** Reset the contact-cycle count after replacing the contacts; audited */
+        /** Reset the contact-cycle count after replacing the contacts (probe change); needs a reason; audited */
         post: operations["FixturesController_contactsReplaced"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/fixtures/calibration-quantities": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** The quantities a calibration may state an uncertainty for (from the step-kind registry), with units */
+        get: operations["FixturesController_quantities"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/hold-alerts": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Alerts, newest first: rules that tripped and evaluations that failed */
+        get: operations["HoldsController_alerts"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/hold-rules": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Hold rules, optionally of one product; active ones first */
+        get: operations["HoldsController_listRules"];
+        put?: never;
+        /** Add a hold rule to a product (audited) */
+        post: operations["HoldsController_createRule"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/hold-rules/{id}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        /** Switch a hold rule off or on again (audited) */
+        patch: operations["HoldsController_updateRule"];
+        trace?: never;
+    };
+    "/api/hold-rules/quantities": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Quantities of the product's released plan that a Cpk or control-chart rule can watch */
+        get: operations["HoldsController_quantities"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/holds": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Holds, newest first: the lot, the rule, the figures and the run that tripped it */
+        get: operations["HoldsController_listHolds"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/holds/{id}/lift": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /** Lift a hold with a reason: the lot is open for testing again (audited) */
+        post: operations["HoldsController_lift"];
         delete?: never;
         options?: never;
         head?: never;
@@ -174,7 +415,7 @@ export interface paths {
         /** Lots, newest first, with unit counts by state */
         get: operations["LotsController_list"];
         put?: never;
-        /** Open a lot and register its units (serials: product prefix, this week's YYWW, 5-digit sequence) */
+        /** Open a lot and register its units: a serial range (firstSerial, lastSerial), a list (serials), or this week's next free serials */
         post: operations["LotsController_create"];
         delete?: never;
         options?: never;
@@ -191,6 +432,142 @@ export interface paths {
         };
         /** One lot with unit counts by state and its serial range */
         get: operations["LotsController_get"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/lots/{id}/certificate.pdf": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** The certificate of conformance issued by the release (the same bytes every time) */
+        get: operations["LotsController_certificate"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/lots/{id}/close": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /** Close a released lot, with a reason */
+        post: operations["LotsController_close"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/lots/{id}/release": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /** Release the lot and issue its certificate of conformance */
+        post: operations["LotsController_release"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/lots/{id}/release-check": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Whether the lot may be released, and what stops it, in plain words */
+        get: operations["LotsController_releaseCheck"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/lots/{id}/units": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Every unit of the lot with its state, by serial */
+        get: operations["LotsController_units"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/lots/export.csv": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** The lots list (same filters) as a lot file that the import reads back (docs/lots-and-release.md) */
+        get: operations["LotsController_exportFile"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/lots/import": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /** Open lots from a CSV lot file (multipart field "file"); a file with any bad row imports nothing and lists every problem */
+        post: operations["LotsController_importFile"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/outbox": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** E-mails sent or being sent, newest first, with their delivery status */
+        get: operations["HoldsController_outbox"];
         put?: never;
         post?: never;
         delete?: never;
@@ -492,6 +869,42 @@ export interface paths {
         patch: operations["ProductsController_update"];
         trace?: never;
     };
+    "/api/repair-causes": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Repair causes, alphabetical: the active ones, or all with ?all=true (with how many records name each) */
+        get: operations["RepairRecordsController_listCauses"];
+        put?: never;
+        /** Add a repair cause (audited) */
+        post: operations["RepairRecordsController_createCause"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/repair-causes/{id}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post?: never;
+        /** Delete a repair cause no record names (audited); one in use is refused: switch it off instead */
+        delete: operations["RepairRecordsController_deleteCause"];
+        options?: never;
+        head?: never;
+        /** Rename a repair cause or switch it off / on (audited); records keep pointing at it */
+        patch: operations["RepairRecordsController_updateCause"];
+        trace?: never;
+    };
     "/api/repair-queue": {
         parameters: {
             query?: never;
@@ -501,6 +914,57 @@ export interface paths {
         };
         /** Units waiting for repair with their last failing run, oldest failure first: units with no attempts left, units sent to repair by the operator, and units in repair */
         get: operations["RepairQueueController_repairQueueList"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/repair-records": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Repair records, newest first: of one serial (?serial=) or all */
+        get: operations["RepairRecordsController_list"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/repair-records/{id}/corrections": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /** Correct a repair record: a new record that points at it (records are never edited); audited with the reason */
+        post: operations["RepairRecordsController_correct"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/repair-records/pareto": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Pareto by repair cause (counts and cumulative percentage), filtered by lot, product and the day the record was written */
+        get: operations["RepairRecordsController_pareto"];
         put?: never;
         post?: never;
         delete?: never;
@@ -689,6 +1153,23 @@ export interface paths {
         };
         /** A unit by serial, with its lot and product */
         get: operations["UnitsController_get"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/units/{serial}/history": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Everything that happened to one unit: runs with measurements, repairs and dispositions (serial: any case, spaces trimmed) */
+        get: operations["UnitsController_history"];
         put?: never;
         post?: never;
         delete?: never;
@@ -914,22 +1395,91 @@ export interface components {
             /** @enum {string} */
             verdict: "pass" | "fail" | "error" | "aborted";
         };
+        AcceptLimitsDto: {
+            /** @example vout_1.5A_V */
+            column: string;
+            /** @description new high limit; leave out for a lower limit only */
+            high?: number;
+            /** @example voutV@1.5 */
+            limitKey: string;
+            /** @description new low limit; leave out for an upper limit only */
+            low?: number;
+            /** @description id of a draft plan version */
+            planVersionId: number;
+            /** @description why these limits, in plain words */
+            reason: string;
+            /**
+             * @description decision rule; the limit keeps its own when left out
+             * @enum {string}
+             */
+            rule?: "simple" | "guarded";
+            /** @example vout-load */
+            stepKey: string;
+            /** @description expanded uncertainty U (k = 2); the limit keeps its own when left out */
+            uncertainty?: number;
+        };
+        AuditChangeDto: {
+            /** @example 3.36 V */
+            after: string | null;
+            /** @example 3.35 V */
+            before: string | null;
+            /** @example High limit of Output voltage at 1.5 A */
+            field: string;
+        };
+        AuditChoicesDto: {
+            entityTypes: components["schemas"]["AuditTypeChoiceDto"][];
+            users: components["schemas"]["AuditUserChoiceDto"][];
+        };
         AuditEventDto: {
+            /** @description internal action code (kept for filtering) */
             action: string;
+            /** @description the person's display name when the user exists */
+            actorDisplayName: string | null;
             actorId: number | null;
+            /** @description sign-in name */
             actorName: string | null;
             after: Record<string, unknown> | null;
             /** @description ISO 8601, UTC */
             at: string;
             before: Record<string, unknown> | null;
+            /** @description before → after in words */
+            changes: components["schemas"]["AuditChangeDto"][];
             entityId: string | null;
             entityType: string;
             id: number;
+            link: components["schemas"]["AuditLinkDto"] | null;
             reason: string | null;
+            /** @description what happened, in plain words */
+            what: string;
+        };
+        AuditLinkDto: {
+            /** @example 12 */
+            id: string;
+            /**
+             * @description plan_version, fixture, user, lot, unit, run, station, product, hold, ...
+             * @example plan_version
+             */
+            kind: string;
+            /** @example OB-BK0503-EOL version 4 */
+            label: string;
+            /** @description plan_version: the plan it belongs to */
+            planId?: number;
+            /** @description unit: its serial (the unit history is reached by serial) */
+            serial?: string;
         };
         AuditPageDto: {
             items: components["schemas"]["AuditEventDto"][];
             total: number;
+        };
+        AuditTypeChoiceDto: {
+            /** @example plan_version */
+            type: string;
+            /** @example plan version */
+            words: string;
+        };
+        AuditUserChoiceDto: {
+            displayName: string;
+            username: string;
         };
         BoardCurrentRunDto: {
             id: number;
@@ -953,6 +1503,8 @@ export interface components {
             /** @enum {string} */
             state: "idle" | "ready" | "testing" | "fault" | "blocked";
             station: components["schemas"]["BoardStationRefDto"];
+            /** @description non-blocking warnings (calibration due soon, contacts nearly worn), in plain words */
+            warnings: string[];
         };
         BoardFixtureDto: {
             /** @description ISO 8601 */
@@ -991,13 +1543,76 @@ export interface components {
              */
             label: string;
         };
+        CalibrationQuantityDto: {
+            /** @example voutV */
+            key: string;
+            /** @example Output voltage */
+            name: string;
+            /** @example V */
+            unit: string;
+        };
+        CalibrationRecordDto: {
+            /** @description ISO 8601; null for a record carried over without a date */
+            calibratedAt: string | null;
+            certificateFile: components["schemas"]["CertificateFileDto"] | null;
+            certificateNumber: string | null;
+            /** @description the calibration in force (its uncertainties judge the next runs) */
+            current: boolean;
+            /** @description amperes, k = 2 */
+            currentUncertaintyA: number;
+            /** @description ISO 8601 */
+            dueAt: string;
+            fixtureId: number;
+            id: number;
+            /** @description ISO 8601, when it was recorded */
+            recordedAt: string;
+            /** @description who recorded it; null for records carried over by the upgrade */
+            recordedBy: string | null;
+            /** @description per quantity, as the certificate states them */
+            uncertainties: components["schemas"]["StatedUncertaintyDto"][];
+            /** @description volts, k = 2 */
+            voltageUncertaintyV: number;
+        };
+        CertificateFileDto: {
+            /** @example OBE-CAL-26-0311.pdf */
+            fileName: string;
+            /** @example /api/fixtures/1/calibrations/4/certificate */
+            href: string;
+            sizeBytes: number;
+        };
         ChangeReasonDto: {
             /** @description what changed and why, in plain words */
+            reason: string;
+        };
+        CloseLotDto: {
+            /** @description why the lot is closed, in plain words */
             reason: string;
         };
         ContactsReplacedDto: {
             /** @example Pogo pins replaced after 48 000 cycles */
             reason: string;
+        };
+        CorrectRepairRecordDto: {
+            /**
+             * @description what was done to the unit
+             * @example Reflowed U1 pins 3-4, cleaned flux
+             */
+            actionTaken: string;
+            /**
+             * @description id of an active repair cause (GET /api/repair-causes)
+             * @example 3
+             */
+            causeId: number;
+            /**
+             * @description why the record is corrected
+             * @example Cause was the inductor, not the solder joint
+             */
+            reason: string;
+            /**
+             * @description what was wrong with the unit
+             * @example Output 5.6 V at full load, ripple high
+             */
+            symptom: string;
         };
         CreateFixtureDto: {
             /**
@@ -1029,13 +1644,44 @@ export interface components {
             /** @description volts, k = 2 */
             voltageUncertaintyV?: number;
         };
+        CreateHoldRuleDto: {
+            /** @description K: failed tests in a row at one station */
+            failuresInRow?: number;
+            /** @enum {string} */
+            kind: "fpy" | "cpk" | "run_rule" | "consecutive_failures";
+            /** @description Y: hold when Cpk is below this */
+            minCpk?: number;
+            /** @description X: hold when FPY is below this, percent (0 < X ≤ 100) */
+            minFpyPct?: number;
+            productId: number;
+            /** @example voutV */
+            quantity?: string;
+            /** @enum {string} */
+            ruleSet?: "western-electric" | "nelson";
+            /** @example vout-no-load */
+            stepKey?: string;
+            /** @description N: units (FPY) or tests (Cpk, run rule) looked at */
+            windowUnits?: number;
+        };
         CreateLotDto: {
             /** @example LB-2649-04 */
             code: string;
-            /** @description first 5-digit sequence of this week's serials; default: next free one */
+            /** @description without serials: first 5-digit sequence of this week's serials; default: next free one */
             firstSequence?: number;
+            /**
+             * @description a range: the first serial (with lastSerial)
+             * @example K5A-2649-00001
+             */
+            firstSerial?: string;
+            /**
+             * @description a range: the last serial (with firstSerial)
+             * @example K5A-2649-00120
+             */
+            lastSerial?: string;
             plannedQuantity: number;
             productId: number;
+            /** @description an explicit list of serials (instead of a range) */
+            serials?: string[];
         };
         CreatePlanVersionDto: {
             maxAttempts: number;
@@ -1066,6 +1712,10 @@ export interface components {
             /** @description volts */
             voutNomV: number;
         };
+        CreateRepairCauseDto: {
+            /** @example Solder bridge */
+            name: string;
+        };
         CreateStationDto: {
             /** @example EOL-4 */
             code: string;
@@ -1090,6 +1740,8 @@ export interface components {
             active: boolean;
             /** @example 115200 */
             baudRate: number;
+            /** @description why testing is stopped, in plain words (as the station shows it) */
+            blocking: string[];
             /** @description ISO 8601 */
             calibratedAt: string | null;
             calibrationCertificate: string | null;
@@ -1105,14 +1757,129 @@ export interface components {
             /** @description allowed minus used, never below 0 */
             contactCyclesRemaining: number;
             contactCyclesUsed: number;
+            /** @description the calibration record in force */
+            currentCalibrationId?: number | null;
             /** @description expanded uncertainty (k = 2) of current readings, amperes */
             currentUncertaintyA: number;
             id: number;
             name: string;
             /** @example mock:FX-101 */
             portPath: string;
+            /** @description the station the fixture is mounted on */
+            station: components["schemas"]["FixtureStationDto"] | null;
+            /**
+             * @description most serious first: out_of_service, overdue, contacts_exhausted (these stop testing), due_soon, contacts_low (these warn)
+             * @enum {string}
+             */
+            status: "in_service" | "due_soon" | "contacts_low" | "overdue" | "contacts_exhausted" | "out_of_service";
             /** @description expanded uncertainty (k = 2) of voltage readings, volts */
             voltageUncertaintyV: number;
+            /** @description calibration due within CALIBRATION_WARN_DAYS, contacts at 90 % or more; in plain words */
+            warnings: string[];
+        };
+        FixtureStationDto: {
+            /** @example EOL-1 */
+            code: string;
+            id: number;
+            name: string;
+        };
+        HistoryMeasurementDto: {
+            /** @description pass, conditional_pass, conditional_fail or fail (ILAC-G8) */
+            decision: string | null;
+            guardedHigh: number | null;
+            /** @description acceptance limit after the guard band */
+            guardedLow: number | null;
+            highLimit: number | null;
+            id: number;
+            lowLimit: number | null;
+            /** @description ISO 8601 */
+            measuredAt: string;
+            name: string;
+            quantity: string;
+            /** @example guarded */
+            rule: string;
+            stepIndex: number;
+            stepKey: string;
+            stepName: string;
+            /** @description expanded uncertainty U (k = 2) in the unit */
+            uncertainty: number;
+            unit: string;
+            value: number | null;
+            /** @example pass */
+            verdict: string;
+        };
+        HistoryRunDto: {
+            attempt: number;
+            endReason: string | null;
+            errorMessage: string | null;
+            failedStepKey: string | null;
+            finishedAt: string | null;
+            /** @description the fixture and its calibration: as recorded by the run (dueAtRun), and its current record */
+            fixture: Record<string, unknown>;
+            id: number;
+            measurements: components["schemas"]["HistoryMeasurementDto"][];
+            operator: Record<string, unknown>;
+            overrideReason: string | null;
+            plan: Record<string, unknown>;
+            startedAt: string;
+            station: Record<string, unknown>;
+            /**
+             * @description running, pass, fail, error, aborted (shown as "Stopped")
+             * @example pass
+             */
+            verdict: string;
+        };
+        HoldAlertDto: {
+            at: string;
+            figures: Record<string, unknown> | null;
+            holdId: number | null;
+            id: number;
+            /** @enum {string} */
+            kind: "hold" | "evaluation_failed";
+            lotCode: string | null;
+            message: string;
+            ruleDescription: string | null;
+            ruleId: number | null;
+            runId: number | null;
+        };
+        HoldDto: {
+            figures: Record<string, unknown>;
+            heldAt: string;
+            id: number;
+            liftedAt: string | null;
+            liftedByName: string | null;
+            liftReason: string | null;
+            lotCode: string;
+            lotId: number;
+            /** @description the lot state now */
+            lotState: string;
+            partNumber: string;
+            reason: string;
+            ruleDescription: string;
+            ruleId: number;
+            runId: number | null;
+            serial: string | null;
+            stationCode: string | null;
+        };
+        HoldRuleDto: {
+            active: boolean;
+            createdAt: string;
+            createdByName: string | null;
+            /** @description the rule in plain words */
+            description: string;
+            failuresInRow: number | null;
+            id: number;
+            /** @enum {string} */
+            kind: "fpy" | "cpk" | "run_rule" | "consecutive_failures";
+            minCpk: number | null;
+            minFpyPct: number | null;
+            partNumber: string;
+            productId: number;
+            quantity: string | null;
+            ruleSet: string | null;
+            stepKey: string | null;
+            switchedOffAt: string | null;
+            windowUnits: number | null;
         };
         IntervalDto: {
             confidence: number;
@@ -1122,6 +1889,10 @@ export interface components {
             n: number;
             upper: number;
             x: number;
+        };
+        LiftHoldDto: {
+            /** @description why testing may go on (kept in the audit trail) */
+            reason: string;
         };
         LimitDto: {
             high?: number;
@@ -1150,34 +1921,67 @@ export interface components {
             user: components["schemas"]["UserDto"];
         };
         LotDetailDto: {
+            /** @description ISO 8601 */
+            closedAt: string | null;
+            closedBy: string | null;
+            closeReason: string | null;
             /** @example LB-2649-01 */
             code: string;
             /** @description ISO 8601 */
             createdAt: string;
             /** @description lowest registered serial */
             firstSerial: string | null;
+            /** @description a certificate of conformance was issued (GET /lots/:id/certificate.pdf) */
+            hasCertificate: boolean;
             holdReason: string | null;
             id: number;
             /** @description highest registered serial */
             lastSerial: string | null;
             plannedQuantity: number;
             product: components["schemas"]["ProductRefDto"];
+            /** @description ISO 8601 */
+            releasedAt: string | null;
+            /** @description display name of the person who released the lot */
+            releasedBy: string | null;
             /** @enum {string} */
             state: "open" | "on_hold" | "released" | "closed";
             unitCounts: components["schemas"]["UnitCountsDto"];
         };
         LotDto: {
+            /** @description ISO 8601 */
+            closedAt: string | null;
+            closedBy: string | null;
+            closeReason: string | null;
             /** @example LB-2649-01 */
             code: string;
             /** @description ISO 8601 */
             createdAt: string;
+            /** @description a certificate of conformance was issued (GET /lots/:id/certificate.pdf) */
+            hasCertificate: boolean;
             holdReason: string | null;
             id: number;
             plannedQuantity: number;
             product: components["schemas"]["ProductRefDto"];
+            /** @description ISO 8601 */
+            releasedAt: string | null;
+            /** @description display name of the person who released the lot */
+            releasedBy: string | null;
             /** @enum {string} */
             state: "open" | "on_hold" | "released" | "closed";
             unitCounts: components["schemas"]["UnitCountsDto"];
+        };
+        LotImportResultDto: {
+            imported: number;
+            lots: components["schemas"]["LotDto"][];
+        };
+        LotUnitDto: {
+            /** @description ISO 8601 */
+            lastTestedAt: string | null;
+            serial: string;
+            /** @enum {string} */
+            state: "untested" | "passed" | "failed" | "in_repair" | "scrapped";
+            /** @description completed runs (pass or fail) */
+            testCount: number;
         };
         MeasurementDto: {
             /**
@@ -1205,6 +2009,20 @@ export interface components {
             value: number | null;
             /** @enum {string} */
             verdict: "pass" | "fail" | "guard_fail";
+        };
+        OutboxMessageDto: {
+            alertId: number | null;
+            attempts: number;
+            body: string;
+            createdAt: string;
+            id: number;
+            lastAttemptAt: string | null;
+            lastError: string | null;
+            sentAt: string | null;
+            /** @enum {string} */
+            status: "queued" | "sent" | "failed";
+            subject: string;
+            to: string;
         };
         PlanComparisonDto: {
             added: components["schemas"]["StepRefDto"][];
@@ -1358,17 +2176,55 @@ export interface components {
             /** @example OB-BK0503 */
             partNumber: string;
         };
+        QuantityChoiceDto: {
+            /** @description the limit has a low or high bound (needed for Cpk) */
+            hasLimits: boolean;
+            name: string;
+            quantity: string;
+            stepKey: string;
+            stepName: string;
+            unit: string;
+        };
         RecordCalibrationDto: {
             /** @description ISO 8601 */
             calibratedAt: string;
-            /** @example CAL-2026-0412 */
+            /**
+             * @description certificate number
+             * @example CAL-2026-0412
+             */
             certificate: string;
-            /** @description expanded uncertainty (k = 2) from the certificate, amperes */
+            /** @description expanded uncertainty (k = 2) of the fixture's current meter, amperes */
             currentUncertaintyA: number;
             /** @description ISO 8601 */
             dueAt: string;
-            /** @description expanded uncertainty (k = 2) from the certificate, volts */
+            /**
+             * @description expanded uncertainty (k = 2) per measured quantity, in its unit, as stated on the certificate; keys from GET /api/fixtures/calibration-quantities. A stated value replaces the plan's value in guard banding.
+             * @example {
+             *       "voutV": 0.004,
+             *       "rippleMvPp": 1.5
+             *     }
+             */
+            uncertainties?: {
+                [key: string]: number;
+            };
+            /** @description expanded uncertainty (k = 2) of the fixture's voltmeter, volts */
             voltageUncertaintyV: number;
+        };
+        ReleaseBlockerDto: {
+            /** @example units_untested */
+            code: string;
+            /** @example 12 units not yet tested */
+            message: string;
+            /** @description some of the serials concerned (at most 20) */
+            serials?: string[];
+        };
+        ReleaseCheckDto: {
+            blockers: components["schemas"]["ReleaseBlockerDto"][];
+            releasable: boolean;
+        };
+        ReleaseLotDto: {
+            /** @description a comment printed on the certificate and kept in the audit trail */
+            comment?: string;
         };
         ReorderDto: {
             from: number;
@@ -1378,15 +2234,29 @@ export interface components {
         };
         RepairActionDto: {
             /**
-             * @description receive: failed → in_repair; return: in_repair → untested (may be tested again, fresh attempts); scrap: failed or in_repair → scrapped
+             * @description receive: failed → in_repair; return: in_repair → untested (eligible for retest, fresh attempts); scrap: failed or in_repair → scrapped. return and scrap write a repair record and need symptom, causeId and actionTaken.
              * @enum {string}
              */
             action: "receive" | "return" | "scrap";
+            /** @description return and scrap: what was done to the unit */
+            actionTaken?: string;
+            /** @description return and scrap: id of an active repair cause */
+            causeId?: number;
             /**
-             * @description what was found or done; kept as the reason in the audit trail
-             * @example Replaced R12 (feedback divider), resoldered L1
+             * @description required to receive a unit; an optional remark for return and scrap. Kept as the reason in the audit trail
+             * @example On bench 2
              */
-            note: string;
+            note?: string;
+            /** @description return and scrap: what was wrong with the unit */
+            symptom?: string;
+        };
+        RepairCauseDto: {
+            /** @description false: switched off, not offered for new records */
+            active: boolean;
+            id: number;
+            name: string;
+            /** @description repair records that name this cause (a cause in use cannot be deleted) */
+            recordCount: number;
         };
         RepairFailureDto: {
             guardedHigh: number | null;
@@ -1402,9 +2272,30 @@ export interface components {
             /** @enum {string} */
             verdict: "pass" | "fail" | "guard_fail";
         };
+        RepairParetoBarDto: {
+            causeId: number;
+            count: number;
+            cumulativeCount: number;
+            /** @description running total, percent; the last bar is 100 */
+            cumulativePercent: number;
+            /** @description the cause name (as it is called today) */
+            key: string;
+            label: string;
+            /** @description share of all records, percent */
+            percent: number;
+        };
+        RepairParetoDto: {
+            /** @description largest first */
+            bars: components["schemas"]["RepairParetoBarDto"][];
+            /** @description current repair records in the filter (a corrected record counts through its correction only) */
+            records: number;
+        };
         RepairQueueDto: {
-            /** @description oldest failure first */
+            /** @description one page; oldest failure first unless sorted otherwise */
             items: components["schemas"]["RepairQueueItemDto"][];
+            /** @description the failed steps in the queue as filtered (except by step), to filter by */
+            steps: components["schemas"]["RepairQueueStepDto"][];
+            /** @description units matching the filters (all pages) */
             total: number;
         };
         RepairQueueItemDto: {
@@ -1424,6 +2315,46 @@ export interface components {
             testCount: number;
             unitId: number;
         };
+        RepairQueueStepDto: {
+            key: string;
+            name: string;
+        };
+        RepairRecordCauseDto: {
+            id: number;
+            name: string;
+        };
+        RepairRecordDto: {
+            actionTaken: string;
+            cause: components["schemas"]["RepairRecordCauseDto"];
+            /** @description the newer record that corrects this one (null: current) */
+            correctedById: number | null;
+            correctionReason: string | null;
+            /** @description the record this one corrects */
+            correctsId: number | null;
+            /**
+             * @description retest: eligible for retest; scrapped
+             * @enum {string}
+             */
+            disposition: "retest" | "scrapped";
+            /** @description the unit’s last failing run when the record was written */
+            failedRunId: number | null;
+            id: number;
+            /** @description ISO 8601 */
+            recordedAt: string;
+            serial: string;
+            symptom: string;
+            technician: components["schemas"]["RepairRecordPersonDto"];
+            unitId: number;
+        };
+        RepairRecordListDto: {
+            /** @description newest first */
+            items: components["schemas"]["RepairRecordDto"][];
+            total: number;
+        };
+        RepairRecordPersonDto: {
+            displayName: string;
+            id: number;
+        };
         RepairResultDto: {
             /** @enum {string} */
             action: "receive" | "return" | "scrap";
@@ -1431,6 +2362,8 @@ export interface components {
             auditEventId: number;
             /** @description state before the action */
             fromState: string;
+            /** @description the repair record written (return and scrap); null for receive */
+            record: components["schemas"]["RepairRecordDto"] | null;
             /** @description state after the action */
             toState: string;
             unit: components["schemas"]["UnitDto"];
@@ -1528,8 +2461,48 @@ export interface components {
             verdict: "running" | "pass" | "fail" | "error" | "aborted";
         };
         RunListDto: {
-            items: components["schemas"]["RunDto"][];
+            items: components["schemas"]["RunListItemDto"][];
             total: number;
+        };
+        RunListItemDto: {
+            attempt: number;
+            durationMs: number | null;
+            /**
+             * @description why the run ended without a judged verdict; null for pass, fail and running
+             * @enum {string|null}
+             */
+            endReason: "operator_stop" | "server_shutdown" | "interrupted" | "fixture_fault" | "software_fault" | "implausible_reading" | "store_failed" | null;
+            errorMessage: string | null;
+            failedStepKey: string | null;
+            /** @description the failed step as its plan version names it (null: none failed, or a key the plan does not know) */
+            failedStepName: string | null;
+            finishedAt: string | null;
+            fixtureCalibrationDueAt: string | null;
+            fixtureCode: string;
+            fixtureContactCycles: number | null;
+            fixtureId: number;
+            fixtureIdentity: string | null;
+            id: number;
+            lotCode: string;
+            lotId: number;
+            operatorId: number;
+            operatorName: string;
+            overrideByName: string | null;
+            overrideReason: string | null;
+            partNumber: string;
+            /** @description SHA-256 of the steps of the plan version the run used */
+            planChecksum?: string;
+            planCode: string;
+            planVersion: number;
+            planVersionId: number;
+            productId: number;
+            serial: string;
+            startedAt: string;
+            stationCode: string;
+            stationId: number;
+            unitId: number;
+            /** @enum {string} */
+            verdict: "running" | "pass" | "fail" | "error" | "aborted";
         };
         ScanDto: {
             /**
@@ -1614,6 +2587,16 @@ export interface components {
              * @example K5A-2648-00017
              */
             serial: string;
+        };
+        StatedUncertaintyDto: {
+            /** @example Output voltage */
+            name: string;
+            /** @example voutV */
+            quantity: string;
+            /** @description expanded uncertainty (k = 2), in `unit` */
+            uncertainty: number;
+            /** @example V */
+            unit: string;
         };
         StationDto: {
             active: boolean;
@@ -1708,6 +2691,32 @@ export interface components {
             /** @description completed runs (pass or fail) */
             testCount: number;
         };
+        UnitHistoryDto: {
+            /** @description repair steps, dispositions and run overrides, newest first, in words */
+            events: components["schemas"]["AuditEventDto"][];
+            /** @description repair record fields per event id (symptom, cause, action, ...) in words */
+            repairRecords?: Record<string, unknown>;
+            /** @description newest first */
+            runs: components["schemas"]["HistoryRunDto"][];
+            unit: components["schemas"]["UnitHistoryUnitDto"];
+        };
+        UnitHistoryUnitDto: {
+            /** @description where the unit stands now, in words (its disposition) */
+            disposition: string;
+            id: number;
+            lot: Record<string, unknown>;
+            product: Record<string, unknown>;
+            sentToRepairAt: string | null;
+            serial: string;
+            /** @example in_repair */
+            state: string;
+            /**
+             * @description state in words
+             * @example In repair
+             */
+            stateWords: string;
+            testCount: number;
+        };
         UnitLotDto: {
             code: string;
             id: number;
@@ -1743,6 +2752,10 @@ export interface components {
             name?: string;
             portPath?: string;
         };
+        UpdateHoldRuleDto: {
+            /** @description false switches the rule off (it stays listed with the holds it caused) */
+            active: boolean;
+        };
         UpdateProductDto: {
             /** @description false hides the product from new lots */
             active?: boolean;
@@ -1755,6 +2768,12 @@ export interface components {
             vinMinV?: number;
             vinNomV?: number;
             voutNomV?: number;
+        };
+        UpdateRepairCauseDto: {
+            /** @description false switches the cause off (no longer offered); true switches it on again */
+            active?: boolean;
+            /** @description a new name (rename); records keep pointing at the cause */
+            name?: string;
         };
         UpdateStationDto: {
             /** @description an open lot; null clears */
@@ -1839,10 +2858,20 @@ export interface operations {
         parameters: {
             query?: {
                 action?: string;
+                /** @description Object id (a unit filter also accepts its serial) */
                 entityId?: string;
+                /** @description Object type (plan_version, fixture, user, lot, unit, test_run, ...) */
                 entityType?: string;
+                /** @description From this instant (inclusive), ISO 8601 */
+                from?: string;
                 limit?: number;
                 offset?: number;
+                /** @description Part of the reason, the person, the object id or the before/after text (case-insensitive) */
+                q?: string;
+                /** @description Up to this instant (exclusive), ISO 8601 */
+                to?: string;
+                /** @description Sign-in name of the person who acted */
+                user?: string;
             };
             header?: never;
             path?: never;
@@ -1857,6 +2886,56 @@ export interface operations {
                 content: {
                     "application/json": components["schemas"]["AuditPageDto"];
                 };
+            };
+        };
+    };
+    AuditController_choices: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["AuditChoicesDto"];
+                };
+            };
+        };
+    };
+    AuditController_exportCsv: {
+        parameters: {
+            query?: {
+                action?: string;
+                /** @description Object id (a unit filter also accepts its serial) */
+                entityId?: string;
+                /** @description Object type (plan_version, fixture, user, lot, unit, test_run, ...) */
+                entityType?: string;
+                /** @description From this instant (inclusive), ISO 8601 */
+                from?: string;
+                /** @description Part of the reason, the person, the object id or the before/after text (case-insensitive) */
+                q?: string;
+                /** @description Up to this instant (exclusive), ISO 8601 */
+                to?: string;
+                /** @description Sign-in name of the person who acted */
+                user?: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
             };
         };
     };
@@ -1958,6 +3037,121 @@ export interface operations {
             };
         };
     };
+    CharacterizationController_list: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    CharacterizationController_upload: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "multipart/form-data": {
+                    /** Format: binary */
+                    file: string;
+                    name: string;
+                    product?: string;
+                };
+            };
+        };
+        responses: {
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    CharacterizationController_get: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    CharacterizationController_accept: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["AcceptLimitsDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    CharacterizationController_analyse: {
+        parameters: {
+            query: {
+                /** @description column key as written in the file header */
+                column: string;
+                /** @description proposed high limit, unit of the column */
+                high?: number;
+                /** @description suggested limits at mean ± k·s; default 4 */
+                k?: number;
+                /** @description proposed low limit, unit of the column */
+                low?: number;
+                /** @description expanded uncertainty U (k = 2) the suggested limits are guarded by; default 0 */
+                uncertainty?: number;
+            };
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
     FixturesController_list: {
         parameters: {
             query?: never;
@@ -2046,6 +3240,27 @@ export interface operations {
             };
         };
     };
+    FixturesController_listCalibrations: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["CalibrationRecordDto"][];
+                };
+            };
+        };
+    };
     FixturesController_recordCalibration: {
         parameters: {
             query?: never;
@@ -2055,9 +3270,11 @@ export interface operations {
             };
             cookie?: never;
         };
+        /** @description JSON, or multipart/form-data with the certificate PDF (at most 5 MB) in field "certificatePdf" */
         requestBody: {
             content: {
                 "application/json": components["schemas"]["RecordCalibrationDto"];
+                "multipart/form-data": components["schemas"]["RecordCalibrationDto"];
             };
         };
         responses: {
@@ -2068,6 +3285,26 @@ export interface operations {
                 content: {
                     "application/json": components["schemas"]["FixtureDto"];
                 };
+            };
+        };
+    };
+    FixturesController_certificate: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                calibrationId: number;
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
             };
         };
     };
@@ -2092,6 +3329,180 @@ export interface operations {
                 };
                 content: {
                     "application/json": components["schemas"]["FixtureDto"];
+                };
+            };
+        };
+    };
+    FixturesController_quantities: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["CalibrationQuantityDto"][];
+                };
+            };
+        };
+    };
+    HoldsController_alerts: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["HoldAlertDto"][];
+                };
+            };
+        };
+    };
+    HoldsController_listRules: {
+        parameters: {
+            query?: {
+                productId?: number;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["HoldRuleDto"][];
+                };
+            };
+        };
+    };
+    HoldsController_createRule: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["CreateHoldRuleDto"];
+            };
+        };
+        responses: {
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["HoldRuleDto"];
+                };
+            };
+        };
+    };
+    HoldsController_updateRule: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["UpdateHoldRuleDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["HoldRuleDto"];
+                };
+            };
+        };
+    };
+    HoldsController_quantities: {
+        parameters: {
+            query: {
+                productId: number;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["QuantityChoiceDto"][];
+                };
+            };
+        };
+    };
+    HoldsController_listHolds: {
+        parameters: {
+            query?: {
+                state?: "active" | "lifted" | "all";
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["HoldDto"][];
+                };
+            };
+        };
+    };
+    HoldsController_lift: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["LiftHoldDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["HoldDto"];
                 };
             };
         };
@@ -2158,6 +3569,189 @@ export interface operations {
                 };
                 content: {
                     "application/json": components["schemas"]["LotDetailDto"];
+                };
+            };
+        };
+    };
+    LotsController_certificate: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    LotsController_close: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["CloseLotDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["LotDetailDto"];
+                };
+            };
+        };
+    };
+    LotsController_release: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["ReleaseLotDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["LotDetailDto"];
+                };
+            };
+            /** @description details.code = lot_not_releasable, details.blockers = what stops it */
+            409: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    LotsController_releaseCheck: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ReleaseCheckDto"];
+                };
+            };
+        };
+    };
+    LotsController_units: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["LotUnitDto"][];
+                };
+            };
+        };
+    };
+    LotsController_exportFile: {
+        parameters: {
+            query?: {
+                productId?: number;
+                state?: "open" | "on_hold" | "released" | "closed";
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    LotsController_importFile: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "multipart/form-data": {
+                    /** Format: binary */
+                    file?: string;
+                };
+            };
+        };
+        responses: {
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["LotImportResultDto"];
+                };
+            };
+        };
+    };
+    HoldsController_outbox: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["OutboxMessageDto"][];
                 };
             };
         };
@@ -2664,15 +4258,147 @@ export interface operations {
             };
         };
     };
+    RepairRecordsController_listCauses: {
+        parameters: {
+            query?: {
+                /** @description true: also the causes switched off */
+                all?: "true" | "false";
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["RepairCauseDto"][];
+                };
+            };
+        };
+    };
+    RepairRecordsController_createCause: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["CreateRepairCauseDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["RepairCauseDto"];
+                };
+            };
+            /** @description details.code duplicate_cause (names compare without case) */
+            409: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    RepairRecordsController_deleteCause: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            204: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description details.code unknown_cause */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description details.code cause_in_use */
+            409: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    RepairRecordsController_updateCause: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["UpdateRepairCauseDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["RepairCauseDto"];
+                };
+            };
+            /** @description details.code unknown_cause */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description details.code duplicate_cause */
+            409: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
     RepairQueueController_repairQueueList: {
         parameters: {
             query?: {
+                dir?: "asc" | "desc";
                 limit?: number;
                 /** @description only units of this lot */
                 lotId?: number;
                 offset?: number;
+                /** @description any part of the serial, any case (a scanned repair tag gives the whole serial) */
+                search?: string;
+                sort?: "failedAt" | "serial" | "state" | "lot" | "station" | "step" | "tests";
+                /** @description only units in this state */
+                state?: "failed" | "in_repair";
                 /** @description only units whose last failing run was on this station */
                 stationId?: number;
+                /** @description only units whose last failing run failed this step (step key) */
+                step?: string;
             };
             header?: never;
             path?: never;
@@ -2697,9 +4423,107 @@ export interface operations {
             };
         };
     };
+    RepairRecordsController_list: {
+        parameters: {
+            query?: {
+                limit?: number;
+                offset?: number;
+                /** @description the whole serial (any case) */
+                serial?: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["RepairRecordListDto"];
+                };
+            };
+        };
+    };
+    RepairRecordsController_correct: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["CorrectRepairRecordDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["RepairRecordDto"];
+                };
+            };
+            /** @description validation: details lists the fields (symptom, causeId, actionTaken, reason) */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description details.code unknown_record */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description details.code record_already_corrected */
+            409: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    RepairRecordsController_pareto: {
+        parameters: {
+            query?: {
+                /** @description first day included (YYYY-MM-DD, plant local time) */
+                from?: string;
+                lotId?: number;
+                productId?: number;
+                /** @description last day included (YYYY-MM-DD, plant local time) */
+                to?: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["RepairParetoDto"];
+                };
+            };
+        };
+    };
     RunsController_list: {
         parameters: {
             query?: {
+                /** @description default: desc for startedAt (newest first), asc for every other column */
+                dir?: "asc" | "desc";
                 /** @description runs started at or after (ISO 8601) */
                 from?: string;
                 limit?: number;
@@ -2707,6 +4531,8 @@ export interface operations {
                 offset?: number;
                 /** @description any part of the serial, any case (e.g. "00017" or "k5a-2648") */
                 serial?: string;
+                /** @description the column to sort by */
+                sort?: "startedAt" | "serial" | "product" | "lot" | "station" | "fixture" | "operator" | "attempt" | "plan" | "verdict" | "failedStep" | "duration";
                 stationId?: number;
                 /** @description runs started before (ISO 8601) */
                 to?: string;
@@ -3076,6 +4902,34 @@ export interface operations {
                 };
                 content: {
                     "application/json": components["schemas"]["UnitDto"];
+                };
+            };
+            /** @description details.code = unknown_serial */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    UnitsController_history: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                serial: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["UnitHistoryDto"];
                 };
             };
             /** @description details.code = unknown_serial */
