@@ -31,7 +31,10 @@ describe('unit history: GET /api/units/:serial/history', () => {
     failRunId = failed.runId;
     const send = await h.http().post(`/api/units/${serial}/send-to-repair`).set(auth('operator')).send({ note: 'vout low' });
     expect([200, 201]).toContain(send.status);
-    for (const body of [{ action: 'receive', note: 'bench 2' }, { action: 'return', note: 'replaced R7 feedback resistor' }]) {
+    // returning for retest needs a repair record (symptom, cause from the engineers' list, action taken)
+    const causeId = (await h.http().get('/api/repair-causes').set(auth('engineer')).expect(200)).body[0].id;
+    const record = { symptom: 'output low at full load', causeId, actionTaken: 'replaced R7 feedback resistor' };
+    for (const body of [{ action: 'receive', note: 'bench 2' }, { action: 'return', note: 'replaced R7 feedback resistor', ...record }]) {
       const step = await h.http().post(`/api/units/${serial}/repair`).set(auth('engineer')).send(body);
       expect(step.status, JSON.stringify(step.body)).toBe(200);
     }
@@ -63,7 +66,7 @@ describe('unit history: GET /api/units/:serial/history', () => {
   });
 
   it('lists the repair steps and the send-to-repair in words, newest first, with the technician\'s note', async () => {
-    const { events } = (await history(serial).expect(200)).body;
+    const { events, repairRecords } = (await history(serial).expect(200)).body;
     const unitEvents = events.filter((e: { entityType: string }) => e.entityType === 'unit');
     expect(unitEvents.map((e: { what: string }) => e.what)).toEqual([
       `Returned unit ${serial} from repair for retest`,
@@ -71,6 +74,9 @@ describe('unit history: GET /api/units/:serial/history', () => {
       `Sent unit ${serial} to repair`,
     ]);
     expect(unitEvents[0]).toMatchObject({ reason: 'replaced R7 feedback resistor', actorName: 'engineer' });
+    // the repair record (symptom, cause, action taken) is shown with the return
+    const record = repairRecords[String(unitEvents[0].id)] as { field: string; value: string }[];
+    expect(record.map((r) => r.value)).toEqual(expect.arrayContaining(['output low at full load', 'replaced R7 feedback resistor']));
     expect(unitEvents[0].changes).toEqual(expect.arrayContaining([{ field: 'State', before: 'in repair', after: 'untested' }]));
   });
 

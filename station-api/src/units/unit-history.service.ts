@@ -163,8 +163,12 @@ function dispositionOf(state: string, sentToRepair: boolean, testCount: number, 
 /** The repair record an event carries (flat keys, or nested under `repair`), each field in words. */
 export function repairRecord(e: Pick<AuditEventDto, 'after'>): { field: string; value: string }[] {
   const after = e.after ?? {};
-  const nested = after.repair && typeof after.repair === 'object' ? (after.repair as Record<string, unknown>) : null;
-  const source = nested ?? Object.fromEntries(REPAIR_KEYS.filter((k) => k in after).map((k) => [k, after[k]]));
+  // the repair loop writes the record under `repairRecord` (symptom, cause, action, disposition)
+  const held = after.repairRecord ?? after.repair;
+  const nested = held && typeof held === 'object' ? (held as Record<string, unknown>) : null;
+  const source = nested
+    ? Object.fromEntries(Object.entries(nested).filter(([k]) => !['id', 'causeId', 'correctsId'].includes(k)))
+    : Object.fromEntries(REPAIR_KEYS.filter((k) => k in after).map((k) => [k, after[k]]));
   return Object.entries(source)
     .map(([k, v]) => {
       const f = fieldWords(k);
