@@ -18,11 +18,12 @@ const suite = (name, cmd) => ({ kind: 'suite', name, cmd });
 // Stage 1, two at a time (the machine has 2 cores): checks that keep the code's shape (types of every
 // workspace with its tests, lint, dependency boundaries, the UI's REST types against the server's OpenAPI
 // document) and the light suites. Their output is printed whole when each ends, so nothing interleaves.
+// The longest job first, so the two lanes end together.
 const stage1 = [
+  suite('station-ui (unit)', ['npm', 'test', '-w', 'station-ui']),
   check('type-check (every workspace, tests included)', ['npm', 'run', 'typecheck']),
   check('lint (typescript-eslint recommended)', ['npm', 'run', 'lint']),
   suite('mock-fixture', ['npm', 'test', '-w', 'mock-fixture']),
-  suite('station-ui (unit)', ['npm', 'test', '-w', 'station-ui']),
   check('dependency boundaries', ['npm', 'run', 'check:boundaries']),
   check('UI REST types match the OpenAPI document', ['node', 'station-ui/scripts/api-types.mjs', '--check', '--no-build']),
 ];

@@ -42,7 +42,10 @@ beforeAll(async () => {
   failedRunId = (await finishedRun(operator, started.run.id)).id;
   await api(server.baseUrl, operator, `/units/${units.defective}/send-to-repair`, { method: 'POST', body: { note: 'output low at full load' } });
   await api(server.baseUrl, engineer, `/units/${units.defective}/repair`, { method: 'POST', body: { action: 'receive', note: 'on bench 2' } });
-  await api(server.baseUrl, engineer, `/units/${units.defective}/repair`, { method: 'POST', body: { action: 'return', note: 'feedback resistor R7 replaced' } });
+  // returning for retest takes a repair record: symptom, a cause from the engineers' list, the action taken
+  const causes = await api<{ id: number }[]>(server.baseUrl, engineer, '/repair-causes');
+  const record = { symptom: 'output low at full load', causeId: causes[0]!.id, actionTaken: 'feedback resistor R7 replaced' };
+  await api(server.baseUrl, engineer, `/units/${units.defective}/repair`, { method: 'POST', body: { action: 'return', note: 'feedback resistor R7 replaced', ...record } });
   // a limit change, so the trail holds a plan edit in words
   const plans = await api<{ releasedVersion: { id: number } }[]>(server.baseUrl, engineer, '/plans');
   const draft = await api<{ id: number; steps: { limits: { high?: number }[] }[] }>(server.baseUrl, engineer, `/plan-versions/${plans[0]!.releasedVersion.id}/drafts`, {

@@ -107,7 +107,7 @@ describe('runs list and run detail (real browser)', () => {
     await page.getByRole('button', { name: 'Sort by serial, descending' }).click();
     await page.waitForURL(/\/runs\?sort=serial&dir=desc$/);
     await page.waitForFunction((first) => document.querySelector('table[aria-label="Runs"] tbody tr')?.getAttribute('aria-label')?.includes(first) === true, [units.good[0]!, units.defective].sort().reverse()[0]!);
-    await page.getByLabel('Serial', { exact: false }).and(page.locator('input')).fill(units.defective.slice(-9).toLowerCase());
+    await page.locator('main').getByLabel('Serial', { exact: true }).and(page.locator('input')).fill(units.defective.slice(-9).toLowerCase());
     await page.keyboard.press('Enter');
     await page.waitForFunction(() => document.querySelectorAll('table[aria-label="Runs"] tbody tr').length === 1);
     expect(await rows.first().getAttribute('data-verdict')).toBe('fail');
