@@ -8,24 +8,12 @@ import { User } from '../users/user.entity';
 import type { CreateHoldRuleDto, HoldRuleDto, HoldRuleQueryDto, QuantityChoiceDto, UpdateHoldRuleDto } from './dto/hold-rule.dto';
 import { HoldRule, HoldRuleKind } from './hold-rule.entity';
 import { checkRuleFields } from './hold-rule-checks';
-import { describeRule } from './hold-rule-words';
 import { toHoldRuleDto } from './hold-views';
 
-/** The rule's own fields, for the audit trail. */
+/** The rule's own fields, for the audit trail: its view without who made it and when. */
 function ruleState(r: HoldRule): Record<string, unknown> {
-  return {
-    productId: r.product.id,
-    kind: r.kind,
-    description: describeRule(r),
-    windowUnits: r.windowUnits ?? null,
-    minFpyPct: r.minFpyPct ?? null,
-    minCpk: r.minCpk ?? null,
-    stepKey: r.stepKey ?? null,
-    quantity: r.quantity ?? null,
-    ruleSet: r.ruleSet ?? null,
-    failuresInRow: r.failuresInRow ?? null,
-    active: r.active,
-  };
+  const { id: _id, partNumber: _part, createdByName: _by, createdAt: _at, switchedOffAt: _off, ...state } = toHoldRuleDto(r);
+  return state;
 }
 
 /** Hold rules per product: list, add (checked against the product's released plan), switch off and on. */

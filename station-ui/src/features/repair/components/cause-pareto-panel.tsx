@@ -1,7 +1,8 @@
 import { CompositeChart } from '@mantine/charts';
-import { Group, Skeleton, Stack, Table, Text, TextInput } from '@mantine/core';
+import { Group, Skeleton, Stack, Text, TextInput } from '@mantine/core';
 import { useState } from 'react';
 import { ErrorNotice } from '@/components/errors/error-notice';
+import { CauseParetoTable } from '@/components/pareto/cause-pareto-table';
 import { useRepairPareto } from '../api/get-repair-pareto';
 
 /** Pareto by repair cause: bars largest first with the cumulative percentage, for the queue's lot and a date range. */
@@ -45,32 +46,7 @@ export function CauseParetoPanel({ lotId }: { lotId?: number }) {
             withLegend
             aria-label="Pareto by cause chart"
           />
-          <Table aria-label="Pareto by cause" striped>
-            <Table.Thead>
-              <Table.Tr>
-                <Table.Th>Cause</Table.Th>
-                <Table.Th ta="right">Repairs</Table.Th>
-                <Table.Th ta="right">Share</Table.Th>
-                <Table.Th ta="right">Cumulative</Table.Th>
-              </Table.Tr>
-            </Table.Thead>
-            <Table.Tbody>
-              {bars.map((b) => (
-                <Table.Tr key={b.key}>
-                  <Table.Td>{b.label}</Table.Td>
-                  <Table.Td ff="monospace" ta="right">
-                    {b.count}
-                  </Table.Td>
-                  <Table.Td ff="monospace" ta="right">
-                    {b.percent.toFixed(1)} %
-                  </Table.Td>
-                  <Table.Td ff="monospace" ta="right">
-                    {b.cumulativePercent.toFixed(1)} %
-                  </Table.Td>
-                </Table.Tr>
-              ))}
-            </Table.Tbody>
-          </Table>
+          <CauseParetoTable bars={bars} label="Pareto by cause" />
         </>
       )}
     </Stack>

@@ -1,22 +1,15 @@
-import { Skeleton, Stack, Table, Text } from '@mantine/core';
+import { Skeleton, Stack, Text } from '@mantine/core';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { ErrorNotice } from '@/components/errors/error-notice';
+import { CauseParetoTable, type CauseParetoBar } from '@/components/pareto/cause-pareto-table';
 import { apiPaths } from '@/config/paths';
 import { api } from '@/lib/api-client';
 import { yieldQuery, yieldQueryRoot, type YieldFilters } from '../api/yield-filters';
 
-interface CauseBar {
-  key: string;
-  label: string;
-  count: number;
-  percent: number;
-  cumulativePercent: number;
-}
-
 /** `GET /api/repair-records/pareto` (H6, issue 12), typed by hand until the API types are regenerated. */
 interface CausePareto {
   records: number;
-  bars: CauseBar[];
+  bars: CauseParetoBar[];
 }
 
 /**
@@ -46,32 +39,7 @@ export function RepairCausePareto({ filters }: { filters: YieldFilters }) {
       {pareto.isError && <ErrorNotice error={pareto.error} title="The repair causes could not be loaded" onRetry={() => void pareto.refetch()} />}
       {pareto.data && pareto.data.bars.length === 0 && <Text c="dimmed">No repair records in this selection.</Text>}
       {pareto.data && pareto.data.bars.length > 0 && (
-        <Table aria-label="Pareto by repair cause" striped>
-          <Table.Thead>
-            <Table.Tr>
-              <Table.Th>Cause</Table.Th>
-              <Table.Th ta="right">Repairs</Table.Th>
-              <Table.Th ta="right">Share</Table.Th>
-              <Table.Th ta="right">Cumulative</Table.Th>
-            </Table.Tr>
-          </Table.Thead>
-          <Table.Tbody>
-            {pareto.data.bars.map((b) => (
-              <Table.Tr key={b.key}>
-                <Table.Td>{b.label}</Table.Td>
-                <Table.Td ff="monospace" ta="right">
-                  {b.count}
-                </Table.Td>
-                <Table.Td ff="monospace" ta="right">
-                  {b.percent.toFixed(1)} %
-                </Table.Td>
-                <Table.Td ff="monospace" ta="right">
-                  {b.cumulativePercent.toFixed(1)} %
-                </Table.Td>
-              </Table.Tr>
-            ))}
-          </Table.Tbody>
-        </Table>
+        <CauseParetoTable bars={pareto.data.bars} label="Pareto by repair cause" />
       )}
     </Stack>
   );
