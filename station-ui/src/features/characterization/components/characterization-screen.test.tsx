@@ -199,7 +199,7 @@ describe('CharacterizationScreen', { timeout: 60_000 }, () => {
     await user.paste('0.005');
     // ILAC-G8:09/2019 §4.2.2 guarded acceptance: 4.9735 + 0.005 = 4.9785, 5.0347 − 0.005 = 5.0297
     await waitFor(() => expect(screen.getByTestId('guarded-limits')).toHaveTextContent('4.979 … 5.030 V'));
-    expect(screen.getByText('Guarded by U = 0.0050 V')).toBeInTheDocument();
+    expect(screen.getByText('Guarded by U = 0.005 V')).toBeInTheDocument();
     const last = analysisCalls().at(-1)!;
     expect([last.searchParams.get('k'), last.searchParams.get('uncertainty')]).toEqual(['3', '0.005']);
   });

@@ -3,6 +3,7 @@ import { Text } from '@mantine/core';
 import { formatFigure } from '@contract/value-format';
 import type { Analysis } from '../api/types';
 import { columnDigits } from './characterization-format';
+import { uText } from './suggestion-settings';
 
 type Line = { x: number; label: string; color: string; strokeDasharray?: string; labelPosition: 'insideTopLeft' | 'insideTopRight' | 'insideBottomLeft' | 'insideBottomRight' };
 
@@ -62,7 +63,7 @@ export function DataHistogram({ analysis }: { analysis: Analysis }) {
         proposed limits; dashed copper: suggested limits (mean ± {analysis.suggestion?.k ?? 4}·s)
         {g ? (
           <>
-            ; dotted slate: suggested limits guarded by U = <Text span ff="monospace" fz="xs">{formatFigure(analysis.suggestion!.uncertainty, d + 1)} {analysis.column.unit}</Text>
+            ; dotted slate: suggested limits guarded by U = <Text span ff="monospace" fz="xs">{uText(analysis.suggestion!.uncertainty)} {analysis.column.unit}</Text>
           </>
         ) : null}
         .

@@ -10,6 +10,11 @@ export interface SuggestionInput {
   uText: string | number;
 }
 
+/** U as the engineer wrote it (0.01, not 0.0100): a stated uncertainty, not a measured value. */
+export function uText(u: number): string {
+  return String(Number(u.toPrecision(4)));
+}
+
 export const DEFAULT_SUGGESTION_INPUT: SuggestionInput = { kText: DEFAULT_SUGGESTION_K, uText: 0 };
 
 /** The settings read from the fields: the values when both are accepted, else each field's problem. */
@@ -88,7 +93,7 @@ export function SuggestionSettings({ column, input, onChange, suggestion, sd, di
         />
         <NumberInput
           label={`Guard U (${column.unit})`}
-          description="expanded, coverage factor 2"
+          description="coverage factor 2"
           placeholder="0"
           value={input.uText}
           onChange={(uText) => onChange({ ...input, uText })}
@@ -121,7 +126,7 @@ export function SuggestionSettings({ column, input, onChange, suggestion, sd, di
         {suggestion && (
           <Stack gap={2} pt={4}>
             <Text size="xs" c="dimmed">
-              {guarded ? `Guarded by U = ${formatFigure(suggestion.uncertainty, digits + 1)} ${column.unit}` : 'Guarded: no guard band (U = 0)'}
+              {guarded ? `Guarded by U = ${uText(suggestion.uncertainty)} ${column.unit}` : 'Guarded: no guard band (U = 0)'}
             </Text>
             <Text ff="monospace" size="sm" data-testid="guarded-limits">
               {formatLimits(suggestion.acceptance.low, suggestion.acceptance.high, column.name, column.unit, digits)}

@@ -103,7 +103,7 @@ export function CalibrationUsed({ calibration: c, fixtureCode, fixtureId }: { ca
         </Text>
       ) : (
         <div className={classes.calibrationGrid}>
-          <FieldGroup title="Calibration record">
+          <FieldGroup title="Certificate and dates">
             <Field label="Record" mono testId="trace-cal-id">
               #{c.id}
               {c.current ? <span className={classes.dim}> (still in force)</span> : <span className={classes.dim}> (since replaced by a later calibration)</span>}
