@@ -62,7 +62,8 @@ export class RunsService {
    */
   private async calibrationOfRun(calibrationId: unknown, fixtureId: number): Promise<CalibrationRecordDto | null> {
     if (calibrationId === null || calibrationId === undefined) return null;
-    const record = await this.em.findOne(CalibrationRecord, { id: Number(calibrationId) }, { populate: ['recordedBy'] });
+    // the recorder's name only: a run read never touches a password hash (test/run-store.e2e-spec.ts)
+    const record = await this.em.findOne(CalibrationRecord, { id: Number(calibrationId) }, { populate: ['recordedBy'], exclude: ['recordedBy.passwordHash'] });
     if (!record) return null;
     const inForce = await currentCalibration(this.em, fixtureId);
     return toCalibrationDto(record, inForce?.id);
