@@ -66,6 +66,7 @@ export class RunsService {
     const record = await this.em.findOne(CalibrationRecord, { id: Number(calibrationId) }, { populate: ['recordedBy'], exclude: ['recordedBy.passwordHash'] });
     if (!record) return null;
     const inForce = await currentCalibration(this.em, fixtureId);
-    return toCalibrationDto(record, inForce?.id);
+    // the view reads the recorder's display name only, never the excluded hash
+    return toCalibrationDto(record as CalibrationRecord, inForce?.id);
   }
 }
