@@ -183,6 +183,42 @@ describe('characterization data: upload, figures, limits into a draft', () => {
     expect(oneSided.body.limitAfter.low).toBeUndefined();
   });
 
+  it('takes the suggestion\'s k and U the engineer chose: the analysis follows them, the limit gets that U, the audit trail records both', async () => {
+    const column = 'vout_1.5A_V';
+    const values = ((await http().get(`${ROUTE}/${demoId}`).set(as(engineer)).expect(200)).body.values[column] as (number | null)[]).filter((v): v is number => v !== null);
+    const m = mean(values); // simple-statistics mean as reference
+    const s = sampleStandardDeviation(values); // simple-statistics sampleStandardDeviation as reference
+    const a = (await http().get(`${ROUTE}/${demoId}/analysis`).query({ column, k: 3, uncertainty: 0.02 }).set(as(engineer)).expect(200)).body;
+    expect(a.suggestion).toMatchObject({ k: 3, uncertainty: 0.02 });
+    // tolerance x̄ ± k·s; ILAC-G8:09/2019 §4.2.2 guarded acceptance (w = U): lower AL = TL + U, upper AL = TL − U
+    expect(a.suggestion.tolerance.low).toBeCloseTo(m - 3 * s, 10);
+    expect(a.suggestion.tolerance.high).toBeCloseTo(m + 3 * s, 10);
+    expect(a.suggestion.acceptance.low).toBeCloseTo(m - 3 * s + 0.02, 10);
+    expect(a.suggestion.acceptance.high).toBeCloseTo(m + 3 * s - 0.02, 10);
+    // the API's bounds, as the screen repeats them on its fields
+    expect((await http().get(`${ROUTE}/${demoId}/analysis`).query({ column, k: 0.2 }).set(as(engineer)).expect(400)).body.message).toMatch(/k must be at least 0.5/);
+    expect((await http().get(`${ROUTE}/${demoId}/analysis`).query({ column, k: 12 }).set(as(engineer)).expect(400)).body.message).toMatch(/k must be at most 10/);
+    expect((await http().get(`${ROUTE}/${demoId}/analysis`).query({ column, uncertainty: -1 }).set(as(engineer)).expect(400)).body.message).toMatch(/uncertainty must be 0 or more/);
+
+    const plan = await demoPlan();
+    const draft = (await http().post(`/api/plan-versions/${plan.releasedVersion.id}/drafts`).set(as(engineer)).send({ reason: 'Limits at 3 s from pilot build P2' }).expect(201)).body;
+    const low = Number(a.suggestion.tolerance.low.toFixed(4));
+    const high = Number(a.suggestion.tolerance.high.toFixed(4));
+    const body = { column, planVersionId: draft.id, stepKey: 'vout-load', limitKey: 'voutV@1.5', low, high, k: 3, uncertainty: 0.02, rule: 'guarded', reason: 'Pilot build P2 at 3 s, guarded by U of FX-101' };
+    expect((await http().post(`${ROUTE}/${demoId}/accept`).set(as(engineer)).send({ ...body, k: 0.1 }).expect(400)).body.message).toMatch(/k must be at least 0.5/);
+    const res = await http().post(`${ROUTE}/${demoId}/accept`).set(as(engineer)).send(body).expect(200);
+    expect(res.body.limitAfter).toMatchObject({ key: 'voutV@1.5', low, high, uncertainty: 0.02, rule: 'guarded' });
+    expect(res.body.statistics.suggestion).toMatchObject({ k: 3, uncertainty: 0.02 });
+
+    const event = await t.orm.em.fork().findOneOrFail(AuditEvent, { id: res.body.auditEventId });
+    const after = event.after as { statistics: { suggestion: { k: number; uncertainty: number; tolerance: { low: number; high: number }; acceptance: { low: number; high: number } } }; limit: Record<string, unknown> };
+    expect(after.statistics.suggestion.k).toBe(3);
+    expect(after.statistics.suggestion.uncertainty).toBe(0.02);
+    expect(after.statistics.suggestion.tolerance.low).toBeCloseTo(m - 3 * s, 10);
+    expect(after.statistics.suggestion.acceptance.high).toBeCloseTo(m + 3 * s - 0.02, 10);
+    expect(after.limit).toMatchObject({ low, high, uncertainty: 0.02, rule: 'guarded' });
+  });
+
   it('refuses a released version with 409, a wrong step, unit or physical range with 400, and changes nothing', async () => {
     const plan = await demoPlan();
     const released = plan.releasedVersion.id;

@@ -22,6 +22,8 @@ interface LimitView {
   key: string;
   low?: number;
   high?: number;
+  uncertainty?: number;
+  rule?: string;
 }
 interface VersionView {
   id: number;
@@ -96,6 +98,23 @@ describe('limits from characterization data (real browser)', { timeout: 180_000 
     await figures.getByText(`${sampleStandardDeviation(values).toFixed(4)} V`, { exact: true }).first().waitFor();
     await figures.getByText(/Anderson–Darling normality test: p =/).waitFor();
 
+    // k moves the suggested limits: x̄ ± k·s with simple-statistics mean and sampleStandardDeviation as reference
+    const m = mean(values);
+    const s = sampleStandardDeviation(values);
+    const suggested = page.getByTestId('suggested-limits');
+    expect(await suggested.innerText()).toBe(`${(m - 4 * s).toFixed(3)} … ${(m + 4 * s).toFixed(3)} V`);
+    await page.getByLabel('Width k').fill('3');
+    await expect.poll(() => suggested.innerText(), { timeout: 10_000 }).toBe(`${(m - 3 * s).toFixed(3)} … ${(m + 3 * s).toFixed(3)} V`);
+    await page.getByText('Suggested (mean ± 3·s)').waitFor();
+    // a k the API refuses is marked on its field in the API's words
+    await page.getByLabel('Width k').fill('12');
+    await page.getByText('k must be at most 10').waitFor();
+    await page.getByLabel('Width k').fill('4');
+    await expect.poll(() => suggested.innerText(), { timeout: 10_000 }).toBe(`${(m - 4 * s).toFixed(3)} … ${(m + 4 * s).toFixed(3)} V`);
+    // U guards the suggestion: ILAC-G8:09/2019 §4.2.2, acceptance limits TL + U and TL − U
+    await page.getByLabel('Guard U (V)').fill('0.01');
+    await expect.poll(() => page.getByTestId('guarded-limits').innerText(), { timeout: 10_000 }).toBe(`${(m - 4 * s + 0.01).toFixed(3)} … ${(m + 4 * s - 0.01).toFixed(3)} V`);
+
     await page.getByRole('button', { name: 'Use suggested limits' }).click();
     const indices = page.getByRole('table', { name: 'Capability indices' });
     // limits at mean ± 4·s give Ppk = 4/3 (the suggestion's rule, src/stats/limits.ts)
@@ -117,6 +136,7 @@ describe('limits from characterization data (real browser)', { timeout: 180_000 
     await page.getByRole('button', { name: 'Put into draft…' }).click();
     const dialog = page.getByRole('dialog', { name: 'Put these limits into the draft?' });
     await dialog.getByText(/EOL-BK0503 version/).waitFor();
+    await dialog.getByText(/Uncertainty U becomes ± 0\.01 V with the guarded rule/).waitFor();
     await dialog.getByRole('button', { name: 'Put into draft', exact: true }).click();
     await page.getByText('Limit put into the draft').waitFor();
 
@@ -124,6 +144,15 @@ describe('limits from characterization data (real browser)', { timeout: 180_000 
     const limit = after.steps.find((s) => s.key === 'vout-load')!.limits.find((l) => l.key === 'voutV@1.5')!;
     expect(limit.low).toBeCloseTo(low, 9);
     expect(limit.high).toBeCloseTo(high, 9);
+    // the U the engineer chose guards the limit, and the audit trail records the k and U of the suggestion
+    expect(limit).toMatchObject({ uncertainty: 0.01, rule: 'guarded' });
+    const audit = await api<{ items: { action: string; after: { statistics?: { suggestion?: { k: number; uncertainty: number } } } | null }[] }>(
+      server.baseUrl,
+      engineer,
+      '/audit?action=characterization.limits_accepted',
+    );
+    const accepted = audit.items.find((e) => e.action === 'characterization.limits_accepted');
+    expect(accepted?.after?.statistics?.suggestion).toMatchObject({ k: 4, uncertainty: 0.01 });
   });
 
   it('fits the figures on a 1024×768 screen', async () => {
@@ -132,8 +161,11 @@ describe('limits from characterization data (real browser)', { timeout: 180_000 
     await page.goto('/limits-from-data');
     await page.getByRole('heading', { name: 'Figures of iin_no_load_mA' }).waitFor();
     await chooseQuantity(page, COLUMN);
+    await page.getByLabel('Guard U (V)').fill('0.01');
+    await page.getByTestId('guarded-limits').getByText(/…/).waitFor();
     await page.getByRole('button', { name: 'Use suggested limits' }).click();
     await expect.poll(() => page.getByRole('table', { name: 'Capability indices' }).getByRole('row', { name: /^Ppk/ }).innerText(), { timeout: 10_000 }).toMatch(/1\.33/);
+    await page.getByText(/dotted slate: suggested limits guarded by U/).waitFor();
     // no sideways scrolling at this width
     expect(await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true);
     await page.getByRole('heading', { name: `Figures of ${COLUMN}` }).scrollIntoViewIfNeeded();

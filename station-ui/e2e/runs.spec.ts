@@ -102,8 +102,9 @@ describe('runs list and run detail (real browser)', () => {
     await page.getByRole('button', { name: 'Sort by serial, ascending' }).click();
     await page.waitForURL(/\/runs\?sort=serial&dir=asc$/);
     const serials = async () => rows.evaluateAll((trs) => trs.map((tr) => tr.getAttribute('aria-label')!.split(', ')[1]));
-    await page.waitForFunction(() => document.querySelector('table[aria-label="Runs"]')?.getAttribute('aria-busy') === 'false');
-    expect(await serials()).toEqual([...(await serials())].sort());
+    // the table may still show the last answer for a moment after the address changes (its aria-busy turns true only
+    // once the new request starts), so wait for the sorted order itself
+    await expect.poll(serials, { timeout: 10_000 }).toEqual([units.good[0]!, units.defective].sort());
     await page.getByRole('button', { name: 'Sort by serial, descending' }).click();
     await page.waitForURL(/\/runs\?sort=serial&dir=desc$/);
     await page.waitForFunction((first) => document.querySelector('table[aria-label="Runs"] tbody tr')?.getAttribute('aria-label')?.includes(first) === true, [units.good[0]!, units.defective].sort().reverse()[0]!);
@@ -144,5 +145,49 @@ describe('runs list and run detail (real browser)', () => {
     await failing.first().getByRole('button', { name: /^Show raw readings/ }).click();
     await table.locator('pre').first().waitFor();
     await screenshot(page, 'run-detail');
+  });
+
+  it('names the calibration record the run was judged with, near the fixture (issue 10)', async () => {
+    const detail = await api<{ calibration: { id: number; certificateNumber: string } | null }>(server.baseUrl, await apiToken(server.baseUrl, 'quality'), `/runs/${made.fail!.id}`);
+    // EOL-1's fixture FX-101 carries the seeded record OBE-CAL-26-0311, in force since the plant was set up
+    expect(detail.calibration).toMatchObject({ certificateNumber: 'OBE-CAL-26-0311' });
+    const block = page.getByTestId('trace-calibration-record');
+    expect(await block.getByTestId('trace-cal-id').innerText()).toBe(`#${detail.calibration!.id} (still in force)`);
+    expect(await block.getByTestId('trace-cal-certificate').innerText()).toBe('OBE-CAL-26-0311');
+    expect(await block.getByTestId('trace-cal-due').innerText()).toMatch(/^\d{4}-\d{2}-\d{2}$/);
+    const uTable = block.getByRole('table', { name: 'Uncertainty used for guard banding' });
+    expect(await uTable.innerText()).toMatch(/Output voltage[\s\S]*± 0\.01 V/);
+    // quality may not open the Fixtures page (engineers only), so no link leads there
+    expect(await block.getByRole('link').count()).toBe(0);
+
+    // an engineer gets the link to the Fixtures page; screenshots at both office widths
+    for (const [width, height] of [
+      [1920, 1080],
+      [1024, 768],
+    ] as const) {
+      const ctx = await browser.newContext({ baseURL: server.baseUrl, viewport: { width, height }, deviceScaleFactor: 1 });
+      try {
+        const p = await ctx.newPage();
+        await signInAs(p, 'engineer');
+        await p.goto(`/runs/${made.fail!.id}`);
+        const cal = p.getByTestId('trace-calibration-record');
+        await cal.getByTestId('trace-cal-certificate').waitFor();
+        expect(await cal.getByRole('link', { name: 'FX-101 on the Fixtures page' }).getAttribute('href')).toBe('/fixtures');
+        expect(await p.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true);
+        // the traceability block with the calibration below the app bar
+        await p.evaluate(() => {
+          document.getElementById('trace-title')?.scrollIntoView({ block: 'start' });
+          window.scrollBy(0, -76);
+        });
+        await screenshot(p, `run-detail-${width}`);
+        if (width === 1920) {
+          await cal.getByRole('link', { name: 'FX-101 on the Fixtures page' }).click();
+          await p.waitForURL('**/fixtures');
+          await p.getByTestId('fixture-FX-101').waitFor();
+        }
+      } finally {
+        await ctx.close();
+      }
+    }
   });
 });

@@ -14,6 +14,7 @@ import {
   type LimitProposal,
   type PpmOutside,
 } from '../stats';
+import { DEFAULT_SUGGESTION_K } from '../contract/limit-suggestion';
 
 /*
  * The figures of one quantity of a characterization data set: a composition of src/stats (no statistics of its
@@ -21,8 +22,7 @@ import {
  * (within, for Cp/Cpk) compares neighbours, the overall σ (Pp/Ppk) does not care about order.
  */
 
-/** Default half-width multiplier for suggested limits: x̄ ± 4·s puts Ppk at 4/3 ≈ 1.33 at the suggestion (common practice, no source). */
-export const DEFAULT_SUGGESTION_K = 4;
+export { DEFAULT_SUGGESTION_K };
 /** Fewest values capability figures are given for (the stats functions need 2; fewer than 8 say nothing useful, common practice, no source). */
 export const MIN_CAPABILITY_VALUES = 8;
 /** p-value below which a normality test is read as evidence against normality (common practice, no source). */

@@ -94,6 +94,10 @@ function auditStatistics(a: CharacterizationAnalysis): Record<string, unknown> {
     pp: est(a.capability?.pp),
     ppk: est(a.capability?.ppk),
     ppmOutside: a.ppmOutside,
+    // the suggestion as the engineer set it on screen (k and U), so the record shows what the limits were compared with
+    suggestion: a.suggestion
+      ? { k: a.suggestion.k, uncertainty: a.suggestion.uncertainty, tolerance: a.suggestion.tolerance, acceptance: a.suggestion.acceptance }
+      : null,
   };
 }
 
@@ -189,7 +193,7 @@ export class CharacterizationService {
     if (dto.low === undefined && dto.high === undefined) {
       throw new BadRequestException({ message: 'Give a low limit, a high limit or both.', details: [{ field: 'low', problems: ['no limit given'] }] });
     }
-    const analysis = this.figures(d, column, { low: dto.low, high: dto.high });
+    const analysis = this.figures(d, column, { low: dto.low, high: dto.high, k: dto.k, uncertainty: dto.uncertainty });
     const target = await this.plans.versionEntity(dto.planVersionId);
     const limit = target.steps.find((s) => s.key === dto.stepKey)?.limits.find((l) => l.key === dto.limitKey);
     if (limit && limit.unit !== column.unit) {

@@ -1400,6 +1400,8 @@ export interface components {
             column: string;
             /** @description new high limit; leave out for a lower limit only */
             high?: number;
+            /** @description k of the suggestion the engineer chose (limits at mean ± k·s), recorded in the audit trail with the suggested and guarded limits; default 4 */
+            k?: number;
             /** @example voutV@1.5 */
             limitKey: string;
             /** @description new low limit; leave out for an upper limit only */
@@ -1415,7 +1417,7 @@ export interface components {
             rule?: "simple" | "guarded";
             /** @example vout-load */
             stepKey: string;
-            /** @description expanded uncertainty U (k = 2); the limit keeps its own when left out */
+            /** @description expanded uncertainty U (k = 2); the limit keeps its own when left out. Also the U the recorded suggestion is guarded by (0 when left out) */
             uncertainty?: number;
         };
         AuditChangeDto: {
@@ -2383,6 +2385,8 @@ export interface components {
         };
         RunDetailDto: {
             attempt: number;
+            /** @description the fixture's calibration record the run was judged with (its per-quantity uncertainties set the guard bands; `current` says whether it is still in force); null for runs from before calibration records were kept */
+            calibration: components["schemas"]["CalibrationRecordDto"] | null;
             durationMs: number | null;
             /**
              * @description why the run ended without a judged verdict; null for pass, fail and running

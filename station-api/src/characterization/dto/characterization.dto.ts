@@ -1,6 +1,7 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform, Type } from 'class-transformer';
 import { IsIn, IsInt, IsNumber, IsOptional, IsString, Max, MaxLength, Min, MinLength } from 'class-validator';
+import { DEFAULT_SUGGESTION_K, SUGGESTION_K_MAX, SUGGESTION_K_MIN } from '../../contract/limit-suggestion';
 
 const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 const finite = (field: string) => ({ message: `${field} must be a number, written with a point (e.g. 5.012)` });
@@ -38,9 +39,9 @@ export class AnalysisQueryDto {
   @IsOptional() @Type(() => Number) @IsNumber({ allowNaN: false, allowInfinity: false }, finite('high'))
   high?: number;
 
-  @ApiPropertyOptional({ description: 'suggested limits at mean ± k·s; default 4', minimum: 0.5, maximum: 10 })
+  @ApiPropertyOptional({ description: `suggested limits at mean ± k·s; default ${DEFAULT_SUGGESTION_K}`, minimum: SUGGESTION_K_MIN, maximum: SUGGESTION_K_MAX })
   @IsOptional() @Type(() => Number) @IsNumber({ allowNaN: false, allowInfinity: false }, finite('k'))
-  @Min(0.5, { message: 'k must be at least 0.5' }) @Max(10, { message: 'k must be at most 10' })
+  @Min(SUGGESTION_K_MIN, { message: `k must be at least ${SUGGESTION_K_MIN}` }) @Max(SUGGESTION_K_MAX, { message: `k must be at most ${SUGGESTION_K_MAX}` })
   k?: number;
 
   @ApiPropertyOptional({ description: 'expanded uncertainty U (k = 2) the suggested limits are guarded by; default 0' })
@@ -75,7 +76,16 @@ export class AcceptLimitsDto {
   @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }, finite('high'))
   high?: number;
 
-  @ApiPropertyOptional({ description: 'expanded uncertainty U (k = 2); the limit keeps its own when left out' })
+  @ApiPropertyOptional({
+    description: `k of the suggestion the engineer chose (limits at mean ± k·s), recorded in the audit trail with the suggested and guarded limits; default ${DEFAULT_SUGGESTION_K}`,
+    minimum: SUGGESTION_K_MIN,
+    maximum: SUGGESTION_K_MAX,
+  })
+  @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }, finite('k'))
+  @Min(SUGGESTION_K_MIN, { message: `k must be at least ${SUGGESTION_K_MIN}` }) @Max(SUGGESTION_K_MAX, { message: `k must be at most ${SUGGESTION_K_MAX}` })
+  k?: number;
+
+  @ApiPropertyOptional({ description: 'expanded uncertainty U (k = 2); the limit keeps its own when left out. Also the U the recorded suggestion is guarded by (0 when left out)' })
   @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }, finite('uncertainty')) @Min(0, { message: 'uncertainty must be 0 or more' })
   uncertainty?: number;
 

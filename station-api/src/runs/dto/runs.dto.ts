@@ -5,6 +5,7 @@ import type { LimitView, MeasurementView, RunView, StepOutline, UnitView } from 
 import { Optional } from '../../common/validation/presence';
 import { DECISIONS as DECISION_STATEMENTS, END_REASONS as RUN_END_REASONS } from '../../contract/run-outcome';
 import { RUN_SORT_KEYS, type RunSort } from '../run-queries';
+import { CalibrationRecordDto } from '../../fixtures/dto/calibration.dto';
 
 const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 
@@ -138,6 +139,13 @@ export class UnitViewDto implements UnitView {
 export class RunDetailDto extends RunDto {
   @ApiProperty({ type: [MeasurementDto] }) measurements!: MeasurementDto[];
   @ApiProperty({ type: [StepOutlineDto], description: 'the plan steps as they were run' }) steps!: StepOutlineDto[];
+  @ApiProperty({
+    type: CalibrationRecordDto,
+    nullable: true,
+    description:
+      "the fixture's calibration record the run was judged with (its per-quantity uncertainties set the guard bands; `current` says whether it is still in force); null for runs from before calibration records were kept",
+  })
+  calibration!: CalibrationRecordDto | null;
 }
 
 export class RunListItemDto extends RunDto {

@@ -1,5 +1,5 @@
 import type { RunDetail } from './api/get-run';
-import type { RunMeasurement as MeasurementView, RunRow as RunView } from './api/run-types';
+import type { RunCalibration, RunMeasurement as MeasurementView, RunRow as RunView } from './api/run-types';
 
 /** Invented Orrin Bay runs for the component tests (docs/architecture.md demo plant). */
 export function makeRun(overrides: Partial<RunView> = {}): RunView {
@@ -63,6 +63,28 @@ export function makeMeasurement(overrides: Partial<MeasurementView> = {}): Measu
   };
 }
 
+/** The calibration record a test run was judged with (invented Orrin Bay certificate). */
+export function makeCalibration(overrides: Partial<RunCalibration> = {}): RunCalibration {
+  return {
+    id: 7,
+    fixtureId: 2,
+    calibratedAt: '2026-01-12T09:00:00.000Z',
+    dueAt: '2026-09-30T00:00:00.000Z',
+    recordedAt: '2026-01-12T14:20:00.000Z',
+    recordedBy: 'Eli Engineer',
+    certificateNumber: 'OBE-CAL-26-0042',
+    voltageUncertaintyV: 0.004,
+    currentUncertaintyA: 0.003,
+    uncertainties: [
+      { quantity: 'voutV', name: 'Output voltage', unit: 'V', uncertainty: 0.004 },
+      { quantity: 'rippleMvPp', name: 'Output ripple and noise, peak-to-peak', unit: 'mV', uncertainty: 1.5 },
+    ],
+    certificateFile: { fileName: 'OBE-CAL-26-0042.pdf', sizeBytes: 48_640, href: '/api/fixtures/2/calibrations/7/certificate' },
+    current: true,
+    ...overrides,
+  };
+}
+
 export function makeRunDetail(overrides: Partial<RunDetail> = {}): RunDetail {
   return {
     ...makeRun(),
@@ -82,6 +104,7 @@ export function makeRunDetail(overrides: Partial<RunDetail> = {}): RunDetail {
       }),
     ],
     steps: [],
+    calibration: makeCalibration(),
     ...overrides,
   };
 }

@@ -14,12 +14,18 @@ export interface AnalysisParams {
   column: string;
   low?: number;
   high?: number;
+  /** the suggestion's half-width multiplier (limits at mean ± k·s) */
+  k?: number;
+  /** expanded uncertainty U (k = 2) the suggestion is guarded by, unit of the column */
+  uncertainty?: number;
 }
 
+/** The key holds every parameter, k and U among them, so a changed setting is a new question to the server. */
 export const analysisQuery = (id: number | null, p: AnalysisParams | null) =>
   queryOptions({
     queryKey: [...root, 'analysis', id, p] as const,
-    queryFn: ({ signal }) => api.get<Analysis>(apiPaths.characterizationAnalysis(id!), { query: { column: p!.column, low: p!.low, high: p!.high }, signal }),
+    queryFn: ({ signal }) =>
+      api.get<Analysis>(apiPaths.characterizationAnalysis(id!), { query: { column: p!.column, low: p!.low, high: p!.high, k: p!.k, uncertainty: p!.uncertainty }, signal }),
     enabled: id !== null && p !== null,
     placeholderData: keepPreviousData,
   });

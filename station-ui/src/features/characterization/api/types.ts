@@ -100,6 +100,12 @@ export interface AcceptRequest {
   limitKey: string;
   low?: number;
   high?: number;
+  /** the suggestion's k the engineer chose; recorded in the audit trail with the suggested and guarded limits */
+  k?: number;
+  /** the limit's expanded uncertainty U (k = 2); left out, the limit keeps its own */
+  uncertainty?: number;
+  /** the limit's decision rule; left out, the limit keeps its own */
+  rule?: 'simple' | 'guarded';
   reason: string;
 }
 

@@ -20,7 +20,8 @@ const dataSet: DataSetSummary = {
 
 const est = (value: number) => ({ value, lower: value - 0.2, upper: value + 0.2, confidence: 0.95, method: 'Bissell normal approximation' });
 
-function analysis(low: number | null, high: number | null): Analysis {
+/** The server's answer; the suggestion follows k and U as the API computes it (x̄ ± k·s, guarded by U). */
+function analysis(low: number | null, high: number | null, k = 4, u = 0): Analysis {
   const withLimits = low !== null || high !== null;
   return {
     dataSet,
@@ -45,10 +46,10 @@ function analysis(low: number | null, high: number | null): Analysis {
       : null,
     ppmOutside: withLimits ? { below: 2.1, above: 3.2, total: 5.3 } : null,
     suggestion: {
-      k: 4,
-      uncertainty: 0,
-      tolerance: { low: 4.9633, high: 5.0449 },
-      acceptance: { low: 4.9633, high: 5.0449 },
+      k,
+      uncertainty: u,
+      tolerance: { low: 5.0041 - k * 0.0102, high: 5.0041 + k * 0.0102 },
+      acceptance: { low: 5.0041 - k * 0.0102 + u, high: 5.0041 + k * 0.0102 - u },
       ppmOutsideTolerance: { below: 31.7, above: 31.7, total: 63.3 },
       ppmOutsideAcceptance: { below: 31.7, above: 31.7, total: 63.3 },
     },
@@ -82,7 +83,9 @@ beforeEach(() => {
     if (url.pathname === '/api/characterization/data-sets/7/analysis') {
       const low = url.searchParams.get('low');
       const high = url.searchParams.get('high');
-      return jsonResponse(200, analysis(low === null ? null : Number(low), high === null ? null : Number(high)));
+      const k = url.searchParams.get('k');
+      const u = url.searchParams.get('uncertainty');
+      return jsonResponse(200, analysis(low === null ? null : Number(low), high === null ? null : Number(high), k === null ? 4 : Number(k), u === null ? 0 : Number(u)));
     }
     if (url.pathname === '/api/characterization/data-sets/7/accept') {
       const body = JSON.parse(String(init?.body));
@@ -170,6 +173,100 @@ describe('CharacterizationScreen', { timeout: 60_000 }, () => {
     await user.click(within(dialog).getByRole('button', { name: 'Put into draft' }));
     expect(await screen.findByText('Limit put into the draft')).toBeInTheDocument();
     const sent = fetchMock.mock.calls.find(([u]) => String(u).endsWith('/accept'))!;
-    expect(JSON.parse(String(sent[1]!.body))).toEqual({ column: 'vout_1.5A_V', planVersionId: 11, stepKey: 'vout-load', limitKey: 'voutV@1.5', low: 4.96, high: 5.045, reason: 'Pilot build P2: Ppk above 1.33' });
+    // the default k goes along for the audit trail; U = 0 leaves the limit's own uncertainty and rule
+    expect(JSON.parse(String(sent[1]!.body))).toEqual({ column: 'vout_1.5A_V', planVersionId: 11, stepKey: 'vout-load', limitKey: 'voutV@1.5', low: 4.96, high: 5.045, k: 4, reason: 'Pilot build P2: Ppk above 1.33' });
+  });
+
+  const analysisCalls = () => fetchMock.mock.calls.map(([u]) => new URL(String(u), 'http://x')).filter((u) => u.pathname.endsWith('/analysis'));
+
+  it('asks the server again when k or U change, and the suggested and guarded limits follow', async () => {
+    const { user } = renderApp(<CharacterizationScreen />, { signedInAs: engineer });
+    // defaults: k = 4, U = 0 (a data set is not tied to a fixture, the hint says so)
+    expect(await screen.findByTestId('suggested-limits')).toHaveTextContent('4.963 … 5.045 V');
+    expect(screen.getByLabelText('Width k')).toHaveValue('4');
+    expect(screen.getByLabelText('Guard U (V)')).toHaveValue('0');
+    expect(screen.getByText(/U starts at 0 because a data set is not tied to a fixture/)).toBeInTheDocument();
+    expect(screen.getByTestId('guarded-limits')).toHaveTextContent('4.963 … 5.045 V');
+
+    await user.clear(screen.getByLabelText('Width k'));
+    await user.paste('3');
+    // self-constructed example: 5.0041 ± 3 × 0.0102 = 4.9735 … 5.0347
+    await waitFor(() => expect(screen.getByTestId('suggested-limits')).toHaveTextContent('4.974 … 5.035 V'));
+    expect(analysisCalls().at(-1)!.searchParams.get('k')).toBe('3');
+    expect(screen.getByText('Suggested (mean ± 3·s)')).toBeInTheDocument();
+
+    await user.clear(screen.getByLabelText('Guard U (V)'));
+    await user.paste('0.005');
+    // ILAC-G8:09/2019 §4.2.2 guarded acceptance: 4.9735 + 0.005 = 4.9785, 5.0347 − 0.005 = 5.0297
+    await waitFor(() => expect(screen.getByTestId('guarded-limits')).toHaveTextContent('4.979 … 5.030 V'));
+    expect(screen.getByText('Guarded by U = 0.005 V')).toBeInTheDocument();
+    const last = analysisCalls().at(-1)!;
+    expect([last.searchParams.get('k'), last.searchParams.get('uncertainty')]).toEqual(['3', '0.005']);
+  });
+
+  it('marks k and U outside the API\'s bounds on their fields, in its words, and does not send them', async () => {
+    const { user } = renderApp(<CharacterizationScreen />, { signedInAs: engineer });
+    await screen.findByTestId('suggested-limits');
+    await user.clear(screen.getByLabelText('Width k'));
+    await user.paste('12');
+    expect(await screen.findByText('k must be at most 10')).toBeInTheDocument();
+    await user.clear(screen.getByLabelText('Width k'));
+    await user.paste('0.2');
+    expect(await screen.findByText('k must be at least 0.5')).toBeInTheDocument();
+    await user.clear(screen.getByLabelText('Width k'));
+    expect(await screen.findByText(/k must be a number from 0.5 to 10/)).toBeInTheDocument();
+    await user.paste('4');
+    await user.clear(screen.getByLabelText('Guard U (V)'));
+    await user.paste('-0.01');
+    expect(await screen.findByText('uncertainty must be 0 or more')).toBeInTheDocument();
+    // a U wider than k·s leaves no guarded zone: said on the field, before the server answers without a suggestion
+    await user.clear(screen.getByLabelText('Guard U (V)'));
+    await user.paste('0.05');
+    expect(await screen.findByText(/U closes the guarded zone: keep it below k·s = 0\.0408 V/)).toBeInTheDocument();
+    await new Promise((r) => setTimeout(r, 400));
+    const sent = analysisCalls();
+    expect(sent.some((u) => ['12', '0.2', ''].includes(u.searchParams.get('k') ?? 'none'))).toBe(false);
+    expect(sent.some((u) => u.searchParams.get('uncertainty') === '-0.01')).toBe(false);
+    // put into draft waits for a good k and U
+    await user.click(screen.getByLabelText('Proposed low (V)'));
+    await user.paste('4.96');
+    await user.clear(screen.getByLabelText('Width k'));
+    await user.paste('20');
+    expect(await screen.findByText('Correct k or U above first.')).toBeInTheDocument();
+  });
+
+  it('puts the chosen k and U into the draft: U guards the limit, and the confirmation says what the station will accept', async () => {
+    const { user } = renderApp(<CharacterizationScreen />, { signedInAs: engineer });
+    await screen.findByTestId('suggested-limits');
+    await user.clear(screen.getByLabelText('Width k'));
+    await user.paste('3');
+    await user.clear(screen.getByLabelText('Guard U (V)'));
+    await user.paste('0.005');
+    await waitFor(() => expect(screen.getByTestId('suggested-limits')).toHaveTextContent('4.974 … 5.035 V'));
+    await user.click(screen.getByRole('button', { name: 'Use suggested limits' }));
+    expect(screen.getByLabelText('Proposed low (V)')).toHaveValue('4.974');
+    await waitFor(() => expect(screen.getByLabelText('Draft version', { selector: 'input' })).toHaveValue('v2 — draft'));
+    await user.click(screen.getByLabelText('Limit', { exact: false, selector: 'input' }));
+    await user.click(await screen.findByRole('option', { name: /voutV@1\.5/ }));
+    await user.click(screen.getByLabelText('Reason'));
+    await user.paste('Pilot build P2 at 3 s');
+    await user.click(screen.getByRole('button', { name: 'Put into draft…' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Put these limits into the draft?' });
+    expect(within(dialog).getByTestId('accept-guard')).toHaveTextContent('Uncertainty U becomes ± 0.005 V with the guarded rule: the station accepts 4.979 … 5.030 V');
+    await user.click(within(dialog).getByRole('button', { name: 'Put into draft' }));
+    expect(await screen.findByText('Limit put into the draft')).toBeInTheDocument();
+    const sent = fetchMock.mock.calls.find(([u]) => String(u).endsWith('/accept'))!;
+    expect(JSON.parse(String(sent[1]!.body))).toEqual({
+      column: 'vout_1.5A_V',
+      planVersionId: 11,
+      stepKey: 'vout-load',
+      limitKey: 'voutV@1.5',
+      low: 4.974,
+      high: 5.035,
+      k: 3,
+      uncertainty: 0.005,
+      rule: 'guarded',
+      reason: 'Pilot build P2 at 3 s',
+    });
   });
 });

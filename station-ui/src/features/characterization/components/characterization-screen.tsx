@@ -1,7 +1,8 @@
-import { Button, Group, NumberInput, Paper, Select, SimpleGrid, Skeleton, Stack, Text, Title } from '@mantine/core';
+import { Group, NumberInput, Paper, Select, SimpleGrid, Skeleton, Stack, Text, Title } from '@mantine/core';
 import { useDebouncedValue } from '@mantine/hooks';
-import { formatFigure, formatLimits } from '@contract/value-format';
-import { useEffect, useState, type ReactNode } from 'react';
+import { DEFAULT_SUGGESTION_K, DEFAULT_SUGGESTION_UNCERTAINTY } from '@contract/limit-suggestion';
+import { formatFigure } from '@contract/value-format';
+import { useEffect, useMemo, useState, type ReactNode } from 'react';
 import { ErrorNotice } from '@/components/errors/error-notice';
 import { PageHeader } from '@/components/layout/page-header';
 import { useAnalysis, useDataSets } from '../api/characterization-api';
@@ -9,6 +10,7 @@ import { columnDigits, numberOrUndefined } from './characterization-format';
 import { DataHistogram } from './data-histogram';
 import { FiguresPanel } from './figures-panel';
 import { PutIntoDraft } from './put-into-draft';
+import { DEFAULT_SUGGESTION_INPUT, readSuggestionSettings, SuggestionSettings, type SuggestionInput } from './suggestion-settings';
 import { UploadPanel } from './upload-panel';
 
 function Section({ id, title, children, actions }: { id: string; title: string; children: ReactNode; actions?: ReactNode }) {
@@ -32,6 +34,15 @@ export function CharacterizationScreen() {
   const [columnKey, setColumnKey] = useState<string | null>(null);
   const [lowText, setLowText] = useState<string | number>('');
   const [highText, setHighText] = useState<string | number>('');
+  const [settingsInput, setSettingsInput] = useState<SuggestionInput>(DEFAULT_SUGGESTION_INPUT);
+  // the last k and U both fields accepted: a refused value stays on its field and the figures keep the last good ones
+  const [settings, setSettings] = useState({ k: DEFAULT_SUGGESTION_K, uncertainty: DEFAULT_SUGGESTION_UNCERTAINTY });
+  const read = readSuggestionSettings(settingsInput);
+  const readK = read.ok ? read.k : null;
+  const readU = read.ok ? read.uncertainty : null;
+  useEffect(() => {
+    if (readK !== null && readU !== null) setSettings((was) => (was.k === readK && was.uncertainty === readU ? was : { k: readK, uncertainty: readU }));
+  }, [readK, readU]);
 
   const dataSet = sets.data?.find((d) => d.id === setId) ?? null;
   const column = dataSet?.columns.find((c) => c.key === columnKey) ?? null;
@@ -45,8 +56,10 @@ export function CharacterizationScreen() {
   const low = numberOrUndefined(lowText);
   const high = numberOrUndefined(highText);
   const crossed = low !== undefined && high !== undefined && !(low < high);
-  const [proposal] = useDebouncedValue({ low, high }, 300);
-  const params = column ? { column: column.key, ...(crossed ? {} : proposal) } : null;
+  // one object per change of a value (not per render), so the debounce settles instead of firing again every 300 ms
+  const wanted = useMemo(() => ({ low: crossed ? undefined : low, high: crossed ? undefined : high, k: settings.k, uncertainty: settings.uncertainty }), [crossed, low, high, settings]);
+  const [asked] = useDebouncedValue(wanted, 300);
+  const params = column ? { column: column.key, low: asked.low, high: asked.high, k: asked.k, uncertainty: asked.uncertainty } : null;
   const analysis = useAnalysis(dataSet?.id ?? null, params);
 
   const chooseColumn = (key: string | null) => {
@@ -54,7 +67,8 @@ export function CharacterizationScreen() {
     setLowText('');
     setHighText('');
   };
-  const suggestion = analysis.data?.column.key === column?.key ? analysis.data?.suggestion : null;
+  const sameColumn = analysis.data?.column.key === column?.key;
+  const suggestion = sameColumn ? analysis.data?.suggestion : null;
   const d = column ? columnDigits(column, [low, high]) : 3;
   const useSuggested = () => {
     if (!suggestion) return;
@@ -127,25 +141,19 @@ export function CharacterizationScreen() {
                 ff="monospace"
                 error={crossed ? 'must be above the low limit' : undefined}
               />
-              {suggestion && (
-                <Stack gap={2}>
-                  <Text size="xs" c="dimmed">
-                    Suggested (mean ± {suggestion.k}·s)
-                  </Text>
-                  <Group gap="xs">
-                    <Text ff="monospace" size="sm">
-                      {formatLimits(suggestion.tolerance.low, suggestion.tolerance.high, column.name, column.unit, d)}
-                    </Text>
-                    <Button size="xs" variant="light" onClick={useSuggested}>
-                      Use suggested limits
-                    </Button>
-                  </Group>
-                </Stack>
-              )}
             </Group>
             <Text size="xs" c="dimmed">
               Leave a field empty for a one-sided limit. The figures follow as you type.
             </Text>
+            <SuggestionSettings
+              column={column}
+              input={settingsInput}
+              onChange={setSettingsInput}
+              suggestion={suggestion}
+              sd={sameColumn ? analysis.data?.sd : null}
+              digits={d}
+              onUseSuggested={useSuggested}
+            />
             {analysis.isPending ? (
               <Skeleton h={320} />
             ) : analysis.isError ? (
@@ -167,6 +175,7 @@ export function CharacterizationScreen() {
             column={column}
             low={crossed ? undefined : low}
             high={crossed ? undefined : high}
+            settings={read.ok ? { k: read.k, uncertainty: read.uncertainty } : null}
             summary={{
               n: analysis.data?.n ?? column.count,
               ppk: analysis.data?.capability?.ppk.value ?? null,

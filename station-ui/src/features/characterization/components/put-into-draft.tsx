@@ -15,10 +15,21 @@ interface PutIntoDraftProps {
   high: number | undefined;
   /** figures shown in the confirmation, as the screen computed them for these limits */
   summary: { n: number; ppk: number | null; ppm: number | null };
+  /** the suggestion's k and U as the engineer set them; null while a field holds a refused value */
+  settings: { k: number; uncertainty: number } | null;
+}
+
+/**
+ * What "Put into draft" sends besides the limits: always the k the engineer chose (the audit trail records it with
+ * the suggestion); a U above 0 becomes the limit's uncertainty with the guarded rule, so the station guards the new
+ * limits exactly as the screen drew them. U = 0 leaves the limit's own uncertainty and rule as they are.
+ */
+export function acceptSettings(settings: { k: number; uncertainty: number }): { k: number; uncertainty?: number; rule?: 'guarded' } {
+  return settings.uncertainty > 0 ? { k: settings.k, uncertainty: settings.uncertainty, rule: 'guarded' } : { k: settings.k };
 }
 
 /** Chooses a limit of a draft plan version and puts the proposed low/high into it, after a confirmation. */
-export function PutIntoDraft({ dataSet, column, low, high, summary }: PutIntoDraftProps) {
+export function PutIntoDraft({ dataSet, column, low, high, summary, settings }: PutIntoDraftProps) {
   const plans = usePlanChoices();
   const [planId, setPlanId] = useState<number | null>(null);
   const [versionId, setVersionId] = useState<number | null>(null);
@@ -52,7 +63,9 @@ export function PutIntoDraft({ dataSet, column, low, high, summary }: PutIntoDra
   const blocked =
     low === undefined && high === undefined
       ? 'Propose a low limit, a high limit or both first.'
-      : !current
+      : settings === null
+        ? 'Correct k or U above first.'
+        : !current
         ? 'Choose a plan, a draft version and a limit.'
         : reason.trim().length < 3
           ? 'Say why, in the reason field.'
@@ -60,7 +73,10 @@ export function PutIntoDraft({ dataSet, column, low, high, summary }: PutIntoDra
 
   const send = () =>
     accept.mutate(
-      { dataSetId: dataSet.id, body: { column: column.key, planVersionId: versionId!, stepKey: stepKey!, limitKey: limitKey!, low, high, reason: reason.trim() } },
+      {
+        dataSetId: dataSet.id,
+        body: { column: column.key, planVersionId: versionId!, stepKey: stepKey!, limitKey: limitKey!, low, high, ...acceptSettings(settings!), reason: reason.trim() },
+      },
       { onSuccess: () => setConfirming(false) },
     );
 
@@ -164,7 +180,20 @@ export function PutIntoDraft({ dataSet, column, low, high, summary }: PutIntoDra
               From “{dataSet.name}”, {column.key}: n = {summary.n}
               {summary.ppk !== null && `, Ppk ${indexText(summary.ppk)}`}
               {summary.ppm !== null && `, expected ${ppmText(summary.ppm)} ppm outside`}
-              . Uncertainty and decision rule stay as they are.
+              ; suggestion k = {settings?.k}.
+            </Text>
+            <Text size="sm" data-testid="accept-guard">
+              {settings && settings.uncertainty > 0 ? (
+                <>
+                  Uncertainty U becomes ± {Number(settings.uncertainty.toPrecision(6))} {column.unit} with the guarded rule: the station accepts{' '}
+                  <Text span ff="monospace">
+                    {formatLimits(low === undefined ? undefined : low + settings.uncertainty, high === undefined ? undefined : high - settings.uncertainty, column.name, column.unit)}
+                  </Text>
+                  .
+                </>
+              ) : (
+                'U = 0: the limit keeps its own uncertainty and decision rule.'
+              )}
             </Text>
             <Text size="sm">Reason: {reason.trim()}</Text>
             {accept.isError && (

@@ -18,5 +18,35 @@ export type RunSortColumn = (typeof RUN_SORT_COLUMNS)[number];
 /** One stored measurement with its decision statement. */
 export type RunMeasurement = MeasurementDto;
 
-/** `GET /api/runs/:id`: the run with every stored measurement and the plan steps it ran. */
-export type RunDetail = RunDetailDto;
+/** One expanded uncertainty (k = 2) a calibration certificate states, in the quantity's unit. */
+export interface StatedUncertainty {
+  quantity: string;
+  name: string;
+  unit: string;
+  uncertainty: number;
+}
+
+/**
+ * The calibration record a run was judged with (station-api CalibrationRecordDto), typed by hand until the lead
+ * regenerates lib/api-types.ts. `current`: still the fixture's calibration in force.
+ */
+export interface RunCalibration {
+  id: number;
+  fixtureId: number;
+  calibratedAt: string | null;
+  dueAt: string;
+  recordedAt: string;
+  recordedBy: string | null;
+  certificateNumber: string | null;
+  voltageUncertaintyV: number;
+  currentUncertaintyA: number;
+  uncertainties: StatedUncertainty[];
+  certificateFile: { fileName: string; sizeBytes: number; href: string } | null;
+  current: boolean;
+}
+
+/**
+ * `GET /api/runs/:id`: the run with every stored measurement, the plan steps it ran and the calibration record it
+ * was judged with (null for runs from before calibration records were kept).
+ */
+export type RunDetail = Omit<RunDetailDto, 'calibration'> & { calibration: RunCalibration | null };

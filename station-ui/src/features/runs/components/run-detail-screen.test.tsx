@@ -2,7 +2,7 @@ import { screen, within } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { jsonResponse, makeUser, renderApp } from '@/testing/render';
 import type { RunDetail } from '../api/get-run';
-import { makeMeasurement, makeRunDetail } from '../test-data';
+import { makeCalibration, makeMeasurement, makeRunDetail } from '../test-data';
 import { RunDetailScreen } from './run-detail-screen';
 
 function serve(detail: RunDetail) {
@@ -11,6 +11,7 @@ function serve(detail: RunDetail) {
     vi.fn(async (input: RequestInfo | URL) => {
       const url = new URL(String(input), 'http://x');
       if (url.pathname === `/api/runs/${detail.id}`) return jsonResponse(200, detail);
+      if (url.pathname === '/api/fixtures/2/calibrations/7/certificate') return jsonResponse(404, { message: 'Calibration record 7 has no certificate PDF (it was recorded without one).' });
       return jsonResponse(404, { message: 'There is no run with that id.' });
     }),
   );
@@ -19,7 +20,8 @@ function serve(detail: RunDetail) {
 beforeEach(() => serve(makeRunDetail()));
 afterEach(() => vi.unstubAllGlobals());
 
-const renderDetail = (runId = 41) => renderApp(<RunDetailScreen runId={runId} />, { route: `/runs/${runId}`, signedInAs: makeUser(['quality']) });
+const renderDetail = (runId = 41, roles: Parameters<typeof makeUser>[0] = ['quality']) =>
+  renderApp(<RunDetailScreen runId={runId} />, { route: `/runs/${runId}`, signedInAs: makeUser(roles) });
 
 describe('RunDetailScreen', () => {
   it('heads the page with serial, verdict word and shape, product, lot and station', async () => {
@@ -126,6 +128,51 @@ describe('RunDetailScreen', () => {
     expect(raw.textContent).toBe(JSON.stringify({ samples: [3.301, 3.299], dmmRange: '10V' }, null, 2));
     await user.click(screen.getByRole('button', { name: 'Hide raw readings of Output voltage' }));
     expect(screen.queryByLabelText('Raw readings of Output voltage')).toBeNull();
+  });
+
+  it('shows the calibration record the run was judged with, its certificate and the U per quantity of its guard bands', async () => {
+    renderDetail(41, ['engineer']);
+    const block = await screen.findByTestId('trace-calibration-record');
+    expect(within(block).getByTestId('trace-cal-id')).toHaveTextContent('#7 (still in force)');
+    expect(within(block).getByTestId('trace-cal-certificate')).toHaveTextContent('OBE-CAL-26-0042');
+    expect(within(block).getByTestId('trace-cal-calibrated')).toHaveTextContent(/2026-01-12/);
+    expect(within(block).getByTestId('trace-cal-due')).toHaveTextContent(/2026-09-(29|30)/);
+    expect(within(block).getByTestId('trace-cal-by')).toHaveTextContent('Eli Engineer');
+    expect(within(block).getByRole('button', { name: 'Download certificate OBE-CAL-26-0042 (PDF, 47.5 kB)' })).toBeInTheDocument();
+    const table = within(block).getByRole('table', { name: 'Uncertainty used for guard banding' });
+    const rows = within(table).getAllByRole('row');
+    expect(rows[1]).toHaveTextContent('Output voltage');
+    expect(rows[1]).toHaveTextContent('± 0.004 V');
+    expect(rows[2]).toHaveTextContent('± 1.5 mV');
+    // an engineer may open the Fixtures page, so the block links there
+    expect(within(block).getByRole('link', { name: 'FX-01 on the Fixtures page' })).toHaveAttribute('href', '/fixtures');
+  });
+
+  it('says a record was since replaced, and shows the server\'s words when its certificate cannot be fetched', async () => {
+    serve(makeRunDetail({ calibration: makeCalibration({ current: false }) }));
+    const { user } = renderDetail();
+    const block = await screen.findByTestId('trace-calibration-record');
+    expect(within(block).getByTestId('trace-cal-id')).toHaveTextContent('since replaced by a later calibration');
+    // quality cannot open the Fixtures page (engineers only): no link that would lead nowhere
+    expect(within(block).queryByRole('link')).toBeNull();
+    await user.click(within(block).getByRole('button', { name: /Download certificate/ }));
+    expect(await within(block).findByRole('alert')).toHaveTextContent('has no certificate PDF');
+  });
+
+  it('says in words when a run was judged before calibration records were kept', async () => {
+    serve(makeRunDetail({ calibration: null }));
+    renderDetail();
+    const block = await screen.findByTestId('trace-calibration-record');
+    expect(block).toHaveTextContent('No calibration record (run before records were kept)');
+    expect(within(block).queryByRole('table')).toBeNull();
+  });
+
+  it('says when a certificate came without a PDF', async () => {
+    serve(makeRunDetail({ calibration: makeCalibration({ certificateFile: null, uncertainties: [] }) }));
+    renderDetail();
+    const block = await screen.findByTestId('trace-calibration-record');
+    expect(within(block).getByTestId('trace-cal-pdf')).toHaveTextContent('no PDF on file');
+    expect(block).toHaveTextContent('each limit kept the plan’s own value');
   });
 
   it('says so when the run does not exist', async () => {

@@ -79,7 +79,7 @@ export function RunDetailScreen({ runId }: { runId: number }) {
         {r.verdict === 'fail' && <RepairTagButton runId={r.id} />}
       </Group>
 
-      <Traceability run={r} steps={r.steps} />
+      <Traceability run={r} steps={r.steps} calibration={r.calibration ?? null} />
 
       <Paper withBorder radius="md" p="md" component="section" aria-labelledby="measurements-title">
         <Group justify="space-between" align="baseline" mb="sm">

@@ -1,34 +1,11 @@
 import { Alert, Paper, SimpleGrid, Title } from '@mantine/core';
 import { IconAlertTriangle } from '@tabler/icons-react';
-import type { ReactNode } from 'react';
 import { endReasonWords } from '@contract/run-outcome';
-import type { RunRow as RunView } from '../api/run-types';
+import type { RunCalibration, RunRow as RunView } from '../api/run-types';
 import { formatDay, formatDuration, formatStamp } from '../format';
+import { CalibrationUsed } from './calibration-used';
 import classes from './run-detail.module.css';
-
-function Field({ label, children, mono = false, testId }: { label: string; children: ReactNode; mono?: boolean; testId?: string }) {
-  return (
-    <div className={classes.field}>
-      <dt className={classes.fieldLabel}>{label}</dt>
-      <dd className={mono ? classes.monoValue : classes.value} data-testid={testId}>
-        {children}
-      </dd>
-    </div>
-  );
-}
-
-function FieldGroup({ title, children }: { title: string; children: ReactNode }) {
-  return (
-    <div className={classes.group}>
-      <h3 className={classes.groupTitle}>{title}</h3>
-      <dl className={classes.list} aria-label={title}>
-        {children}
-      </dl>
-    </div>
-  );
-}
-
-const missing = <span className={classes.dim}>not recorded</span>;
+import { Field, FieldGroup, missing } from './trace-fields';
 
 /** True when the fixture's calibration had already run out when the run started. */
 export function calibrationLapsed(run: Pick<RunView, 'startedAt' | 'fixtureCalibrationDueAt'>): boolean {
@@ -40,7 +17,16 @@ export function calibrationLapsed(run: Pick<RunView, 'startedAt' | 'fixtureCalib
  * What the run was made with and by whom, as stored with the run (not as the plan or fixture stand today),
  * so a quality question about one unit is answered from this block alone.
  */
-export function Traceability({ run, steps = [] }: { run: RunView; steps?: { key: string; name: string }[] }) {
+export function Traceability({
+  run,
+  steps = [],
+  calibration,
+}: {
+  run: RunView;
+  steps?: { key: string; name: string }[];
+  /** the calibration record the run was judged with; null: none kept; left out: not known to this view */
+  calibration?: RunCalibration | null;
+}) {
   // the failed step as the plan names it (issue 12); the key only when the plan does not know it
   const failedStepName = run.failedStepName ?? steps.find((s) => s.key === run.failedStepKey)?.name ?? null;
   const endReason = endReasonWords(run.endReason);
@@ -110,6 +96,7 @@ export function Traceability({ run, steps = [] }: { run: RunView; steps?: { key:
           </Field>
         </FieldGroup>
       </SimpleGrid>
+      {calibration !== undefined && <CalibrationUsed calibration={calibration} fixtureCode={run.fixtureCode} fixtureId={run.fixtureId} />}
       {(run.errorMessage || endReason) && (
         <Alert
           mt="md"
