@@ -13,7 +13,9 @@ export default defineConfig({
     include: ['src/**/*.spec.ts', 'test/**/*.e2e-spec.ts'],
     testTimeout: 30_000,
     hookTimeout: 60_000,
-    // each file gets its own temporary SQLite database; files run in parallel forks
+    // each file gets its own temporary SQLite database, a copy of one migrated and seeded here before any
+    // file starts (see test/create-test-app.ts); files run in parallel forks
+    globalSetup: ['./test/support/template-database.ts'],
     pool: 'forks',
   },
   plugins: [
