@@ -17,6 +17,9 @@ export default defineConfig({
     // file starts (see test/create-test-app.ts); files run in parallel forks
     globalSetup: ['./test/support/template-database.ts'],
     pool: 'forks',
+    // Vitest's default is one worker less than the cores: one worker on a 2-core CI machine. The e2e files
+    // spend much of their time waiting on SQLite and HTTP, so two workers keep both cores busy.
+    maxWorkers: 2,
   },
   plugins: [
     // Nest needs decorator metadata, which Vite's default transform does not emit
