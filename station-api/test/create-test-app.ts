@@ -57,7 +57,7 @@ export async function createTestApp(env: Record<string, string> = {}, options: T
   // The configuration module validates the environment once, when app.module first loads in this process:
   // a second app in the same test file opens the first app's DATABASE_PATH (a fresh file there, since the
   // first app's close() removed it), not this call's copy. So the copy counts only where the app opens it.
-  const openedPath = orm.config.get('dbName');
+  const openedPath = orm.config.get('dbName') ?? dbPath;
   const seeded = template !== undefined && openedPath === dbPath;
   // a no-op on the template's copy; kept so a copy can never run behind the migrations in src/
   await orm.getMigrator().up();
