@@ -15,23 +15,27 @@ buildAll();
 const check = (name, cmd) => ({ kind: 'check', name, cmd });
 const suite = (name, cmd) => ({ kind: 'suite', name, cmd });
 
-// Stage 1, two at a time (the machine has 2 cores): checks that keep the code's shape (types of every
-// workspace with its tests, lint, dependency boundaries, the UI's REST types against the server's OpenAPI
-// document) and the light suites. Their output is printed whole when each ends, so nothing interleaves.
-// The longest job first, so the two lanes end together.
+// Stage 1, two at a time (the machine has 2 cores): the crash harness, checks that keep the code's shape
+// (types of every workspace with its tests, lint, dependency boundaries, the UI's REST types against the
+// server's OpenAPI document) and the light suites. Their output is printed whole when each ends, so nothing
+// interleaves. The longest jobs first, so the two lanes end together.
+// The crash harness restarts one built server at a time and waits for it; it leaves a core free, which the
+// other lane's single-process checks and one-worker UI suite fill. Its checks are about what a crash leaves
+// behind, never about timing (its waits are generous), so sharing the machine slows it without making it
+// flaky; docs/testing.md has the loaded runs that show it. Never beside a server suite: those use both cores.
 const stage1 = [
   suite('station-ui (unit)', ['npm', 'test', '-w', 'station-ui']),
+  suite('station-api (crash harness)', ['npm', 'run', 'test:crash', '-w', 'station-api']),
   check('type-check (every workspace, tests included)', ['npm', 'run', 'typecheck']),
   check('lint (typescript-eslint recommended)', ['npm', 'run', 'lint']),
   suite('mock-fixture', ['npm', 'test', '-w', 'mock-fixture']),
   check('dependency boundaries', ['npm', 'run', 'check:boundaries']),
   check('UI REST types match the OpenAPI document', ['node', 'station-ui/scripts/api-types.mjs', '--check', '--no-build']),
 ];
-// Then the heavy suites one after another: each starts servers and would compete for the cores.
+// Then the server suites one after another: each runs two workers (or a server and Chromium) and would
+// compete for the cores.
 const heavy = [
   suite('station-api', ['npm', 'test', '-w', 'station-api']),
-  // alone, so its server restarts do not compete with the other suites for the cores
-  suite('station-api (crash harness)', ['npm', 'run', 'test:crash', '-w', 'station-api']),
   suite('station-ui (browser)', ['npm', 'run', 'test:browser', '-w', 'station-ui']),
 ];
 

@@ -13,8 +13,13 @@ export default defineConfig({
     include: ['src/**/*.spec.ts', 'test/**/*.e2e-spec.ts'],
     testTimeout: 30_000,
     hookTimeout: 60_000,
-    // each file gets its own temporary SQLite database; files run in parallel forks
+    // each file gets its own temporary SQLite database, a copy of one migrated and seeded here before any
+    // file starts (see test/create-test-app.ts); files run in parallel forks
+    globalSetup: ['./test/support/template-database.ts'],
     pool: 'forks',
+    // Vitest's default is one worker less than the cores: one worker on a 2-core CI machine. The e2e files
+    // spend much of their time waiting on SQLite and HTTP, so two workers keep both cores busy.
+    maxWorkers: 2,
   },
   plugins: [
     // Nest needs decorator metadata, which Vite's default transform does not emit

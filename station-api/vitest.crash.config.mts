@@ -8,5 +8,6 @@ import base from './vitest.config.mts';
  */
 export default defineConfig({
   ...base,
-  test: { ...base.test, include: ['test/crash/**/*.crash-spec.ts'], testTimeout: 600_000, hookTimeout: 60_000 },
+  // no template database: the harness starts the built server on databases of its own
+  test: { ...base.test, include: ['test/crash/**/*.crash-spec.ts'], globalSetup: [], testTimeout: 600_000, hookTimeout: 60_000 },
 });

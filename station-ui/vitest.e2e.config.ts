@@ -9,6 +9,8 @@ export default defineConfig({
     environment: 'node',
     include: ['e2e/**/*.spec.ts'],
     fileParallelism: false,
+    // one seeded database for the whole run, copied by every server the specs start
+    globalSetup: ['./e2e/support/template-database.ts'],
     // Seeding + server start take a few seconds on 2 cores; a page step may wait on the server.
     testTimeout: 60_000,
     hookTimeout: 120_000,

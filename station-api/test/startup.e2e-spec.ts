@@ -103,7 +103,8 @@ describe('server start-up', () => {
     const seen: Record<string, number | string> = {};
     const r = await startServer(
       { RAILWRIGHT_DEMO: '1', DATABASE_PATH: join(d, 'db.sqlite'), PORT: String(port), UI_DIST: ui },
-      (out) => out.includes('listening on'),
+      // the server's own line: in demo mode the mail capture logs "listening on" before the HTTP port is open
+      (out) => out.includes('station server listening on'),
       async () => {
         // an unmigrated database answered 500 here; a migrated, empty one refuses the sign-in
         const res = await fetch(`http://127.0.0.1:${port}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ username: 'nobody', password: 'wrong-pass' }) });

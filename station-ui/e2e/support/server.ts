@@ -1,8 +1,9 @@
 import { spawn, type ChildProcess } from 'node:child_process';
-import { mkdtemp, rm } from 'node:fs/promises';
+import { copyFile, mkdtemp, rm } from 'node:fs/promises';
 import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+import { inject } from 'vitest';
 import { assertBuilt, repo } from './repo';
 
 export interface StationServer {
@@ -36,7 +37,7 @@ export function freePort(): Promise<number> {
   });
 }
 
-function baseEnv(dbPath: string): NodeJS.ProcessEnv {
+export function baseEnv(dbPath: string): NodeJS.ProcessEnv {
   return {
     ...process.env,
     DATABASE_PATH: dbPath,
@@ -83,9 +84,22 @@ async function waitUntilReady(url: string, child: ChildProcess, output: () => st
   throw new Error(`The station server did not answer ${url} within ${READY_TIMEOUT_MS / 1000} s:\n${output()}`);
 }
 
+/** Migrates and seeds the database at `env.DATABASE_PATH` with the built seed command (`npm run db:seed`). */
+export async function seedDatabase(env: NodeJS.ProcessEnv): Promise<void> {
+  await run(process.execPath, [resolve(repo.apiDist, 'database/seed-cli.js')], env);
+}
+
+/**
+ * Keys the seed command reads besides the database path: a server started with another value of one of
+ * these seeds its own database instead of copying the template (see template-database.ts).
+ */
+const SEED_INPUTS = ['SEED_HISTORY'] as const;
+
 /**
  * Seeds a fresh database in a temp folder and starts the built station server on a free port with
  * the simulated fixture at instant timing. Call `stop()` in afterAll.
+ * The fresh database is a copy of the template the globalSetup seeded once for the whole run (the same
+ * seed command, the same environment), or seeded here when there is none or `extraEnv` changes the seed.
  */
 export async function startStationServer(extraEnv: NodeJS.ProcessEnv = {}): Promise<StationServer> {
   assertBuilt();
@@ -93,8 +107,12 @@ export async function startStationServer(extraEnv: NodeJS.ProcessEnv = {}): Prom
   const dbPath = join(dir, 'e2e.sqlite');
   const env = { ...baseEnv(dbPath), ...extraEnv };
 
+  // absent when the tests run without the config's globalSetup
+  const template = inject('templateDatabasePath') as string | undefined;
+  const sameSeed = SEED_INPUTS.every((key) => extraEnv[key] === undefined || extraEnv[key] === baseEnv(dbPath)[key]);
   try {
-    await run(process.execPath, [resolve(repo.apiDist, 'database/seed-cli.js')], env);
+    if (template && sameSeed) await copyFile(template, dbPath);
+    else await seedDatabase(env);
   } catch (e) {
     await rm(dir, { recursive: true, force: true });
     throw new Error(`Seeding the e2e database failed. ${(e as Error).message}`, { cause: e });
