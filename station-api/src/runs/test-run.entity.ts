@@ -81,7 +81,6 @@ export class TestRun extends BaseEntity {
   attempt!: number;
 
   @Enum(() => RunVerdict)
-  @Index()
   verdict: RunVerdict = RunVerdict.Running;
 
   @Property()
