@@ -31,22 +31,28 @@ function arg(name: string, fallback: number): number {
 }
 
 interface Times {
+  n: number;
   p50: number;
   p95: number;
   mean: number;
   max: number;
 }
 
+/** Each figure stops after `reps` samples or, for a slow one, after BUDGET_MS with at least MIN_SAMPLES. */
+const BUDGET_MS = 15_000;
+const MIN_SAMPLES = 10;
+
 async function timeIt(reps: number, fn: (i: number) => Promise<unknown>): Promise<Times> {
   for (let i = 0; i < 3; i++) await fn(i);
   const xs: number[] = [];
-  for (let i = 0; i < reps; i++) {
+  const start = performance.now();
+  for (let i = 0; i < reps && (i < MIN_SAMPLES || performance.now() - start < BUDGET_MS); i++) {
     const t0 = performance.now();
     await fn(i);
     xs.push(performance.now() - t0);
   }
   xs.sort((a, b) => a - b);
-  return { p50: quantile(xs, 0.5), p95: quantile(xs, 0.95), mean: xs.reduce((a, b) => a + b, 0) / xs.length, max: xs[xs.length - 1] };
+  return { p50: quantile(xs, 0.5), p95: quantile(xs, 0.95), mean: xs.reduce((a, b) => a + b, 0) / xs.length, max: xs[xs.length - 1], n: xs.length };
 }
 
 async function main(): Promise<void> {
@@ -141,10 +147,10 @@ async function main(): Promise<void> {
           `file before start-up ${(bytes / 1e6).toFixed(1)} MB = ${perM(bytes)} bytes per measurement; after its migrations, pages in use ${(used / 1e6).toFixed(1)} MB = ${perM(used)} bytes per measurement`,
       );
       log2(`bytes per measurement by table: ${tables}`);
-      log2(`repetitions: ${reps} after 3 warm-ups for each figure; warm page cache; times in ms; svc = the service the HTTP route calls (one complete answer: SQL run, rows read, objects built); SQL = hand-written SQL, same question`);
+      log2(`repetitions: ${reps} after 3 warm-ups for each figure (fewer, at least ${MIN_SAMPLES}, where a figure would take over ${BUDGET_MS / 1000} s: see samples); warm page cache; times in ms; svc = the service the HTTP route calls (one complete answer: SQL run, rows read, objects built); SQL = hand-written SQL, same question`);
       const h = (x: string, w = 8) => x.padStart(w);
       log2(
-        `${'question'.padEnd(44)} ${h('svc p50')} ${h('svc p95')} ${h('svc mean')} ${h('svc max')} | ${h('SQL p50')} ${h('SQL p95')} | ${h('ratio', 7)} ${h('p95', 7)} | no stats: ${h('svc p50')} ${h('SQL p50')}`,
+        `${'question'.padEnd(44)} ${h('svc p50')} ${h('svc p95')} ${h('svc mean')} ${h('svc max')} | ${h('SQL p50')} ${h('SQL p95')} | ${h('ratio', 7)} ${h('p95', 7)} | no stats: ${h('svc p50')} ${h('SQL p50')} | samples svc/SQL`,
       );
       for (const [name, a] of withStats) {
         const b = withoutStats.get(name)!;
@@ -158,7 +164,7 @@ async function main(): Promise<void> {
         const f = (t: Times | undefined, k: keyof Times) => h(ms(t ? t[k] : NaN, 2));
         log2(
           `${name.padEnd(44)} ${f(a.service, 'p50')} ${f(a.service, 'p95')} ${f(a.service, 'mean')} ${f(a.service, 'max')} | ${f(a.sql, 'p50')} ${f(a.sql, 'p95')} | ` +
-            `${h(a.service ? `${ms(a.service.p50 / a.sql.p50, 2)}x` : '', 7)} ${h(a.service ? `${ms(a.service.p95 / a.sql.p95, 2)}x` : '', 7)} | ${' '.repeat(10)}${f(b.service, 'p50')} ${f(b.sql, 'p50')}` +
+            `${h(a.service ? `${ms(a.service.p50 / a.sql.p50, 2)}x` : '', 7)} ${h(a.service ? `${ms(a.service.p95 / a.sql.p95, 2)}x` : '', 7)} | ${' '.repeat(10)}${f(b.service, 'p50')} ${f(b.sql, 'p50')} | ${a.service?.n ?? '-'}/${a.sql.n}` +
             (flags.length ? `  ${flags.join(', ')}` : ''),
         );
       }
