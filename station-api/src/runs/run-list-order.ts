@@ -201,7 +201,8 @@ export async function pageRunIds(
   // the serial order walks every unit: under a filter the matching ones may lie anywhere in it (a month's units
   // are far into the order), so the filtered runs are sorted instead
   const small = filter.clauses.length > 0 ? Math.min(smallList * 5, SMALL_FILTERED_LIST) : smallList;
-  const walk = total > small && !q.serial && !(sort === 'serial' && filter.clauses.length > 0);
+  // newest first (the default) is one statement an index answers under any filter: always read that way
+  const walk = sort === 'startedAt' || (total > small && !q.serial && !(sort === 'serial' && filter.clauses.length > 0));
   const groups = walk ? await runGroups(exec, sort, dir, filter) : undefined;
   if (!groups) {
     const rows = await exec(`select r.id from test_runs r${SORT_JOINS[sort]}${filter.where}${runOrderSql(sort, dir)} limit ? offset ?`, [...filter.params, q.limit, q.offset]);

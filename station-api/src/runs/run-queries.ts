@@ -61,8 +61,14 @@ export function runOrderSql(sort: RunSort = 'startedAt', dir: 'asc' | 'desc' = '
   const col = RUN_SORTS[sort];
   const bare = col.replace(/ collate nocase$/, '');
   const extra = sort === 'plan' ? `, pv.version ${dir}` : '';
-  return ` order by case when ${bare} is null then 1 else 0 end, ${col} ${dir}${extra}, r.started_at desc, r.id desc`;
+  // only the columns that may be empty get the "empty last" term: in front of a column that never is, it kept
+  // the planner from reading the order from an index (issue 11)
+  const emptyLast = NULLABLE_SORTS.has(sort) ? `case when ${bare} is null then 1 else 0 end, ` : '';
+  return ` order by ${emptyLast}${col} ${dir}${extra}, r.started_at desc, r.id desc`;
 }
+
+/** Sort columns that may be empty: a run without a failed step, a run still going (no duration). */
+const NULLABLE_SORTS = new Set<RunSort>(['failedStep', 'duration']);
 
 /** Every verdict a run may hold, in the order SQLite sorts them (binary text); a spec checks it against the DTO. */
 export const RUN_VERDICTS_SORTED = ['aborted', 'error', 'fail', 'pass', 'running'] as const;
