@@ -9,6 +9,9 @@ import { failedStepNames, MEASUREMENT_VIEW_SELECT, RUN_VIEW_SELECT, rowToMeasure
 /** Read side of runs: lists with filters and one run with every measurement. */
 @Injectable()
 export class RunsService {
+  /** Steps of the plan versions the listed runs used, by `id:checksum` (a few versions a year; bounded) */
+  private readonly stepsByVersion = new Map<string, PlanStep[]>();
+
   constructor(private readonly em: EntityManager) {}
 
   /**
@@ -32,12 +35,22 @@ export class RunsService {
     });
     const failed = rows
       .filter((r) => r.failed_step_key !== null && r.failed_step_key !== undefined)
-      .map((r) => ({ id: Number(r.id), planVersionId: Number(r.plan_version_id), failedStepKey: String(r.failed_step_key) }));
+      .map((r) => ({ id: Number(r.id), planVersionId: Number(r.plan_version_id), failedStepKey: String(r.failed_step_key), checksum: String(r.plan_checksum) }));
     const steps = new Map<number, PlanStep[]>();
-    const versions = [...new Set(failed.map((r) => r.planVersionId))];
-    if (versions.length > 0) {
-      for (const v of await exec(`select id, steps from plan_versions where id in (${versions.map(() => '?').join(', ')})`, versions)) {
-        steps.set(Number(v.id), (typeof v.steps === 'string' ? JSON.parse(v.steps) : v.steps) as PlanStep[]);
+    const missing = new Set<number>();
+    for (const r of failed) {
+      // a version's steps are fixed by its checksum: a changed version has another checksum and is read again
+      const known = this.stepsByVersion.get(`${r.planVersionId}:${r.checksum}`);
+      if (known) steps.set(r.planVersionId, known);
+      else missing.add(r.planVersionId);
+    }
+    if (missing.size > 0) {
+      const ids = [...missing];
+      for (const v of await exec(`select id, checksum, steps from plan_versions where id in (${ids.map(() => '?').join(', ')})`, ids)) {
+        const parsed = (typeof v.steps === 'string' ? JSON.parse(v.steps) : v.steps) as PlanStep[];
+        steps.set(Number(v.id), parsed);
+        if (this.stepsByVersion.size >= 500) this.stepsByVersion.clear();
+        this.stepsByVersion.set(`${Number(v.id)}:${String(v.checksum)}`, parsed);
       }
     }
     const names = failedStepNames(failed, steps);
