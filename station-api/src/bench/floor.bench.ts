@@ -10,8 +10,11 @@
  * (so a plan made worse by ANALYZE shows), and the database bytes per measurement.
  * Every timed region is one complete answer (SQL executed, rows read, objects built); nothing is cached
  * between repetitions except SQLite's page cache (warm cache, as on a running server).
- * Options: --runs <n> (default 100000), --reps <n> (default 30), --db <file> (time a file kept by
- * `bench:yield --keep` instead of building one; the same builder made it).
+ * Every sort the runs list offers gets its own line (issue 11: sorting the whole history cost 400-1,000 ms).
+ * Load average is printed at the start and the end of timing: on a shared machine, judge by the ratios.
+ * Options: --runs <n> (default 100000), --reps <n> (default 100: enough samples that p95 is not the
+ * largest one or two), --db <file> (time a copy of a file kept by `bench:yield --keep` instead of building
+ * one; the same builder made it; the start-up migrates it).
  */
 import 'reflect-metadata';
 import { mkdtempSync, rmSync, statSync } from 'node:fs';
@@ -27,21 +30,34 @@ function arg(name: string, fallback: number): number {
   return v;
 }
 
-async function timeIt(reps: number, fn: (i: number) => Promise<unknown>): Promise<{ p50: number; p95: number }> {
+interface Times {
+  n: number;
+  p50: number;
+  p95: number;
+  mean: number;
+  max: number;
+}
+
+/** Each figure stops after `reps` samples or, for a slow one, after BUDGET_MS with at least MIN_SAMPLES. */
+const BUDGET_MS = 15_000;
+const MIN_SAMPLES = 10;
+
+async function timeIt(reps: number, fn: (i: number) => Promise<unknown>): Promise<Times> {
   for (let i = 0; i < 3; i++) await fn(i);
   const xs: number[] = [];
-  for (let i = 0; i < reps; i++) {
+  const start = performance.now();
+  for (let i = 0; i < reps && (i < MIN_SAMPLES || performance.now() - start < BUDGET_MS); i++) {
     const t0 = performance.now();
     await fn(i);
     xs.push(performance.now() - t0);
   }
   xs.sort((a, b) => a - b);
-  return { p50: quantile(xs, 0.5), p95: quantile(xs, 0.95) };
+  return { p50: quantile(xs, 0.5), p95: quantile(xs, 0.95), mean: xs.reduce((a, b) => a + b, 0) / xs.length, max: xs[xs.length - 1], n: xs.length };
 }
 
 async function main(): Promise<void> {
   const runTarget = arg('--runs', 100_000);
-  const reps = arg('--reps', 30);
+  const reps = arg('--reps', 100);
   const reuse = process.argv.indexOf('--db') > 0 ? process.argv[process.argv.indexOf('--db') + 1] : undefined;
   const dir = reuse ? undefined : mkdtempSync(join(tmpdir(), 'railwright-floor-'));
   const dbPath = reuse ?? join(dir!, 'floor.sqlite');
@@ -72,104 +88,14 @@ async function main(): Promise<void> {
 
     const { NestFactory } = await import('@nestjs/core');
     const { AppModule } = await import('../app.module');
-    const { RunsService } = await import('../runs/runs.service');
-    const { BoardService } = await import('../board/board.service');
-    const { ShiftSummaryService } = await import('../shift/shift-summary.service');
-    const { RepairQueueService } = await import('../repair/repair-queue.service');
-    const { RUN_VIEW_SELECT } = await import('../runs/run-queries');
+    const { floorQuestions } = await import('./floor-bench-questions');
     const { DatabaseMaintenanceService } = await import('../database/maintenance/database-maintenance.service');
     const app = await NestFactory.createApplicationContext(AppModule, { logger: ['error'] });
     try {
       const { MikroORM: CoreOrm } = await import('@mikro-orm/core');
-      const orm = app.get(CoreOrm);
-      const conn = orm.em.getConnection();
+      const conn = app.get(CoreOrm).em.getConnection();
       const sql = (q: string, p: unknown[] = []) => conn.execute(q, p) as Promise<Record<string, unknown>[]>;
-      const runs = app.get(RunsService);
-      const board = app.get(BoardService);
-      const shifts = app.get(ShiftSummaryService);
-      const repair = app.get(RepairQueueService);
-      const lot = built.lots[Math.floor(built.lots.length / 2)];
-      const station = built.stations[0];
-      const stationIds = (await sql('select id from stations where active = 1 order by code')).map((r) => Number(r.id));
-      const [{ serial }] = await sql('select serial from units where lot_id = ? order by id limit 1 offset 123', [lot.id]);
-      const serialPart = String(serial).slice(-9).toLowerCase();
-      const runIds = (await sql('select id from test_runs order by random() limit 50')).map((r) => Number(r.id));
-      const [{ id: quantityRun }] = await sql("select id from test_runs where verdict = 'pass' order by id desc limit 1");
-      const [q] = await sql('select step_key, quantity from measurements where run_id = ? and value is not null order by id limit 1', [quantityRun]);
-      const window = shifts.currentShift();
-      const runList = (where: string, p: unknown[]) => async () => {
-        await sql(`${RUN_VIEW_SELECT}${where} order by r.started_at desc, r.id desc limit 50 offset 0`, p);
-        await sql(`select count(*) as total from test_runs r${where}`, p);
-      };
-      const like = `%${serialPart}%`;
-      const questions: { name: string; service: (i: number) => Promise<unknown>; sql: (i: number) => Promise<unknown> }[] = [
-        { name: 'runs list, unfiltered', service: () => runs.list({}), sql: runList('', []) },
-        { name: 'runs list, by lot', service: () => runs.list({ lotId: lot.id }), sql: runList(' where r.lot_id = ?', [lot.id]) },
-        { name: 'runs list, by station', service: () => runs.list({ stationId: station.id }), sql: runList(' where r.station_id = ?', [station.id]) },
-        { name: 'runs list, by verdict (fail)', service: () => runs.list({ verdict: 'fail' }), sql: runList(" where r.verdict = 'fail'", []) },
-        {
-          name: `runs list, by serial part "${serialPart}"`,
-          service: () => runs.list({ serial: serialPart }),
-          sql: runList(' where r.unit_id in (select id from units where serial like ?)', [like]),
-        },
-        {
-          name: 'one run with its measurements',
-          service: (i) => runs.get(runIds[i % runIds.length]),
-          sql: async (i) => {
-            await sql(`${RUN_VIEW_SELECT.replace(' from test_runs r ', ', pv.steps from test_runs r ')} where r.id = ?`, [runIds[i % runIds.length]]);
-            await sql('select * from measurements where run_id = ? order by step_index, id', [runIds[i % runIds.length]]);
-          },
-        },
-        {
-          name: 'board (all active stations)',
-          service: () => board.snapshot(),
-          sql: async () => {
-            await sql('select s.*, f.code as fixture_code, l.code as lot_code, p.part_number from stations s left join fixtures f on f.id = s.fixture_id left join lots l on l.id = s.active_lot_id left join products p on p.id = l.product_id where s.active = 1 order by s.code');
-            for (const id of stationIds) {
-              await sql(
-                "select r.id, u.serial, r.verdict, r.failed_step_key, r.finished_at from test_runs r join units u on u.id = r.unit_id where r.station_id = ? and r.verdict <> 'running' and r.finished_at is not null order by r.finished_at desc, r.id desc limit 8",
-                [id],
-              );
-            }
-            await sql(`select station_id, unit_id, attempt, verdict, finished_at from test_runs where station_id in (${stationIds.map(() => '?').join(', ')}) and finished_at >= ? and finished_at < ?`, [
-              ...stationIds,
-              window.start.getTime(),
-              window.end.getTime(),
-            ]);
-          },
-        },
-        {
-          name: 'shift summary (one station)',
-          service: () => shifts.forStation(station.id),
-          sql: () => sql('select unit_id, attempt, verdict, finished_at from test_runs where station_id = ? and finished_at >= ? and finished_at < ?', [station.id, window.start.getTime(), window.end.getTime()]),
-        },
-        {
-          name: 'repair queue',
-          service: () => repair.list({}),
-          sql: () =>
-            sql(
-              "select u.id, u.serial, u.state, u.test_count, l.code, p.part_number, r.id as run_id, r.attempt, r.failed_step_key, r.finished_at, s.code as station_code, " +
-                "(select m.step_key || ' ' || m.quantity || ' ' || ifnull(m.value, '') from measurements m where m.run_id = r.id and m.verdict <> 'pass' order by m.step_index, m.id limit 1) as first_failure " +
-                "from units u join lots l on l.id = u.lot_id join products p on p.id = u.product_id " +
-                "left join test_runs r on r.id = (select r2.id from test_runs r2 where r2.unit_id = u.id and r2.verdict = 'fail' order by r2.finished_at desc, r2.id desc limit 1) " +
-                "left join stations s on s.id = r.station_id where u.state in ('failed', 'in_repair') order by r.finished_at, u.id limit 200",
-            ),
-        },
-      ];
-      // yield questions (SQL only; the statistics must not make them worse)
-      const yieldSql: { name: string; run: () => Promise<unknown> }[] = [
-        { name: 'COUNT of all runs', run: () => sql('select count(*) from test_runs r') },
-        {
-          name: `lot mean and sd of ${q.quantity}`,
-          run: () =>
-            sql('select count(*), avg(m.value), avg(m.value * m.value) from measurements m join test_runs r on r.id = m.run_id where r.lot_id = ? and m.step_key = ? and m.quantity = ?', [lot.id, q.step_key, q.quantity]),
-        },
-        {
-          name: `trend of ${q.quantity}, last 30 days`,
-          run: () => sql('select measured_at, value from measurements where step_key = ? and quantity = ? and measured_at >= ? order by measured_at', [q.step_key, q.quantity, Date.now() - 30 * 86400_000]),
-        },
-        { name: 'first-pass yield by lot (one lot)', run: () => sql("select count(*), sum(verdict = 'pass') from test_runs where lot_id = ? and attempt = 1", [lot.id]) },
-      ];
+      const questions = await floorQuestions(app, sql, built);
 
       // each question is timed without planner statistics, then with them (the server's own refresh), in
       // turn, so both see the same machine load and the same page cache
@@ -180,52 +106,71 @@ async function main(): Promise<void> {
         await sql('create table bench_reload (x integer)');
         await sql('drop table bench_reload');
       };
-      type Times = { service?: { p50: number; p95: number }; sql: { p50: number; p95: number } };
-      const withStats = new Map<string, Times>();
-      const withoutStats = new Map<string, Times>();
-      const all = [
-        ...questions,
-        ...yieldSql.map((y) => ({ name: y.name, service: undefined as undefined | ((i: number) => Promise<unknown>), sql: y.run })),
-      ];
-      for (const qn of all) {
+      type Pair = { service?: Times; sql: Times };
+      const withStats = new Map<string, Pair>();
+      const withoutStats = new Map<string, Pair>();
+      const load0 = loadavg();
+      const t0 = performance.now();
+      for (const qn of questions) {
         await statsOff();
         withoutStats.set(qn.name, { service: qn.service ? await timeIt(reps, qn.service) : undefined, sql: await timeIt(reps, qn.sql) });
         await maintenance.refresh('bench');
         withStats.set(qn.name, { service: qn.service ? await timeIt(reps, qn.service) : undefined, sql: await timeIt(reps, qn.sql) });
       }
-      const t0 = performance.now();
+      const timedS = (performance.now() - t0) / 1000;
+      const load1 = loadavg();
+      const r0 = performance.now();
       await maintenance.refresh('bench');
-      const refreshMs = performance.now() - t0;
+      const refreshMs = performance.now() - r0;
 
       const [{ n: measurementCount }] = await sql('select count(*) as n from measurements');
-      let tableBytes: number | undefined;
+      const perM = (b: number) => (b / Number(measurementCount)).toFixed(0);
+      const [{ pages, free, size }] = await sql('select page_count as pages, freelist_count as free, page_size as size from pragma_page_count, pragma_freelist_count, pragma_page_size');
+      const used = (Number(pages) - Number(free)) * Number(size);
+      let tables = '';
       try {
-        const [{ b }] = await sql("select sum(pgsize) as b from dbstat where name = 'measurements' or tbl_name = 'measurements'");
-        tableBytes = Number(b);
+        const parts = await sql(
+          "select m.tbl_name as t, sum(case when d.name = m.tbl_name then d.pgsize else 0 end) as rows, sum(case when d.name <> m.tbl_name then d.pgsize else 0 end) as idx " +
+            "from dbstat d join sqlite_master m on m.name = d.name where m.tbl_name in ('measurements', 'test_runs', 'units') group by m.tbl_name order by m.tbl_name",
+        );
+        tables = parts.map((t) => `${String(t.t)} ${perM(Number(t.rows))} + indexes ${perM(Number(t.idx))}`).join('; ');
       } catch {
-        tableBytes = undefined;
+        tables = 'dbstat not available';
       }
-      console.log(`Railwright floor benchmark — ${new Date().toISOString()}`);
-      console.log(`machine: ${cpus().length} cores (${cpus()[0]?.model ?? 'unknown'}), Node ${process.version}; load average (1 min) at the end ${loadavg()[0].toFixed(1)}`);
-      console.log(
-        `database: ${built.runs} runs, ${built.units} units, ${built.lots.length} lots, ${measurementCount} measurements; built in ${(built.buildMs / 1000).toFixed(1)} s; ` +
-          `${(bytes / 1e6).toFixed(1)} MB = ${(bytes / Number(measurementCount)).toFixed(0)} bytes per measurement (whole file)` +
-          (tableBytes ? `, measurements table + its indexes ${(tableBytes / Number(measurementCount)).toFixed(0)} bytes per measurement` : ''),
+      const lines: string[] = [];
+      const log2 = (x: string) => lines.push(x);
+      log2(`Railwright floor benchmark — ${new Date().toISOString()}`);
+      log2(`machine: ${cpus().length} cores (${cpus()[0]?.model ?? 'unknown'}), Node ${process.version}; load average (1 min) ${load0[0].toFixed(1)} at the start of timing, ${load1[0].toFixed(1)} at the end (${timedS.toFixed(0)} s of timing)`);
+      log2(
+        `database: ${built.runs} runs, ${built.units} units, ${built.lots.length} lots, ${measurementCount} measurements; ` +
+          `${reuse ? `reused file ${reuse}` : `built in ${(built.buildMs / 1000).toFixed(1)} s`}; ` +
+          `file before start-up ${(bytes / 1e6).toFixed(1)} MB = ${perM(bytes)} bytes per measurement; after its migrations, pages in use ${(used / 1e6).toFixed(1)} MB = ${perM(used)} bytes per measurement`,
       );
-      console.log(`repetitions: ${reps} after 3 warm-ups; warm page cache; times in ms; service = the code the HTTP route calls`);
-      console.log(`${'question'.padEnd(44)} ${'svc p50'.padStart(8)} ${'svc p95'.padStart(8)} ${'SQL p50'.padStart(8)} ${'SQL p95'.padStart(8)} ${'ratio'.padStart(6)} | no stats: ${'svc p50'.padStart(8)} ${'SQL p50'.padStart(8)}`);
+      log2(`bytes per measurement by table: ${tables}`);
+      log2(`repetitions: ${reps} after 3 warm-ups for each figure (fewer, at least ${MIN_SAMPLES}, where a figure would take over ${BUDGET_MS / 1000} s: see samples); warm page cache; times in ms; svc = the service the HTTP route calls (one complete answer: SQL run, rows read, objects built); SQL = hand-written SQL, same question`);
+      const h = (x: string, w = 8) => x.padStart(w);
+      log2(
+        `${'question'.padEnd(44)} ${h('svc p50')} ${h('svc p95')} ${h('svc mean')} ${h('svc max')} | ${h('SQL p50')} ${h('SQL p95')} | ${h('ratio', 7)} ${h('p95', 7)} | no stats: ${h('svc p50')} ${h('SQL p50')} | samples svc/SQL`,
+      );
       for (const [name, a] of withStats) {
         const b = withoutStats.get(name)!;
         // worse: over 1.5x and over 2 ms slower (smaller differences are this machine's noise)
         const worseThan = (x: number, y: number) => x > 1.5 * y && x - y > 2;
-        const worse = (a.service ? worseThan(a.service.p50, b.service!.p50) : false) || worseThan(a.sql.p50, b.sql.p50);
-        console.log(
-          `${name.padEnd(44)} ${ms(a.service?.p50 ?? NaN, 2).padStart(8)} ${ms(a.service?.p95 ?? NaN, 2).padStart(8)} ${ms(a.sql.p50, 2).padStart(8)} ${ms(a.sql.p95, 2).padStart(8)} ` +
-            `${(a.service ? `${ms(a.service.p50 / a.sql.p50, 2)}x` : '').padStart(6)} | ${' '.repeat(10)}${ms(b.service?.p50 ?? NaN, 2).padStart(8)} ${ms(b.sql.p50, 2).padStart(8)}${worse ? '  WORSE WITH STATISTICS' : ''}`,
+        const flags = [
+          (a.service ? worseThan(a.service.p50, b.service!.p50) : false) || worseThan(a.sql.p50, b.sql.p50) ? 'WORSE WITH STATISTICS' : '',
+          a.service && a.service.p95 > 50 ? 'p95 over 50 ms' : '',
+          a.service && a.service.p50 / a.sql.p50 > 2 ? 'ratio over 2x' : '',
+        ].filter(Boolean);
+        const f = (t: Times | undefined, k: keyof Times) => h(ms(t ? t[k] : NaN, 2));
+        log2(
+          `${name.padEnd(44)} ${f(a.service, 'p50')} ${f(a.service, 'p95')} ${f(a.service, 'mean')} ${f(a.service, 'max')} | ${f(a.sql, 'p50')} ${f(a.sql, 'p95')} | ` +
+            `${h(a.service ? `${ms(a.service.p50 / a.sql.p50, 2)}x` : '', 7)} ${h(a.service ? `${ms(a.service.p95 / a.sql.p95, 2)}x` : '', 7)} | ${' '.repeat(10)}${f(b.service, 'p50')} ${f(b.sql, 'p50')} | ${a.service?.n ?? '-'}/${a.sql.n}` +
+            (flags.length ? `  ${flags.join(', ')}` : ''),
         );
       }
-      console.log(`planner statistics refresh (PRAGMA analysis_limit + ANALYZE + optimize): ${ms(refreshMs, 0)} ms`);
-      console.log('targets (issue 11): every floor service p95 < 50 ms; ratio service / SQL <= 2x; no question worse with statistics');
+      log2(`planner statistics refresh (PRAGMA analysis_limit + ANALYZE + optimize): ${ms(refreshMs, 0)} ms`);
+      log2('targets (issue 11): every floor service p95 < 50 ms; ratio service / SQL <= 2x; no question worse with statistics');
+      console.log(lines.join('\n'));
     } finally {
       await app.close();
     }

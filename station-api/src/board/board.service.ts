@@ -3,7 +3,6 @@ import { Injectable } from '@nestjs/common';
 import { RunEngineService } from '../runs/run-engine.service';
 import type { PlanStep } from '../plans/plan-definition';
 import type { RunVerdictName } from '../realtime/station-events';
-import { Station } from '../stations/station.entity';
 import type { BoardCurrentRunDto, BoardEntryDto, BoardLastRunDto } from './dto/board.dto';
 import { RunProgressTracker } from './run-progress.tracker';
 import { ShiftSummaryService } from '../shift/shift-summary.service';
@@ -26,18 +25,18 @@ export class BoardService {
 
   async snapshot(): Promise<BoardEntryDto[]> {
     const em = this.em.fork();
-    const stations = await em.find(Station, { active: true }, { populate: ['fixture', 'activeLot.product'], orderBy: { code: 'asc' } });
-    const shift = await this.shifts.forStations(stations.map((s) => s.id));
+    // state and reasons by the status route's rule, from plain rows: two statements for all stations
+    const stations = await this.engine.stationStatus.statusesOfStations(em, true);
+    const shift = await this.shifts.forStations(stations.map((s) => s.facts.id));
     const entries: BoardEntryDto[] = [];
-    for (const s of stations) {
-      const status = await this.engine.statusOfLoaded(s, em);
+    for (const { facts: s, status } of stations) {
       entries.push({
         station: { id: s.id, code: s.code, name: s.name },
         state: status.state,
         reasons: status.reasons,
         warnings: status.warnings,
         fixture: s.fixture ? { code: s.fixture.code, calibrationDueAt: s.fixture.calibrationDueAt.toISOString() } : null,
-        activeLot: s.activeLot ? { id: s.activeLot.id, code: s.activeLot.code, partNumber: s.activeLot.product.partNumber } : null,
+        activeLot: s.lot ? { id: s.lot.id, code: s.lot.code, partNumber: s.lot.partNumber } : null,
         currentRun: status.currentRunId ? await this.currentRun(em, s.id, status.currentRunId) : null,
         lastRuns: await this.lastRuns(em, s.id, new Date(shift.get(s.id)!.shiftStart)),
         shift: shift.get(s.id)!,

@@ -15,9 +15,9 @@ export enum MeasurementVerdict {
  * The limits in force are copied here so the record stands alone.
  */
 @Entity({ tableName: 'measurements' })
-@Index({ properties: ['stepKey', 'measuredAt'] })
-// trend of one quantity (Migration20261202140000)
-@Index({ properties: ['stepKey', 'quantity', 'measuredAt'] })
+// trend of one quantity, the value included so the index alone answers it (Migration20261203030000, issue 11;
+// it replaced (stepKey, quantity, measuredAt) and dropped (stepKey, measuredAt), which no reader needed)
+@Index({ properties: ['stepKey', 'quantity', 'measuredAt', 'value'] })
 // one quantity of the filtered runs: capability, control chart (Migration20261202155000)
 @Index({ properties: ['run', 'stepKey', 'quantity', 'value'] })
 export class Measurement extends BaseEntity {

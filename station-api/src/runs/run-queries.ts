@@ -61,16 +61,31 @@ export function runOrderSql(sort: RunSort = 'startedAt', dir: 'asc' | 'desc' = '
   const col = RUN_SORTS[sort];
   const bare = col.replace(/ collate nocase$/, '');
   const extra = sort === 'plan' ? `, pv.version ${dir}` : '';
-  return ` order by case when ${bare} is null then 1 else 0 end, ${col} ${dir}${extra}, r.started_at desc, r.id desc`;
+  // only the columns that may be empty get the "empty last" term: in front of a column that never is, it kept
+  // the planner from reading the order from an index (issue 11)
+  const emptyLast = NULLABLE_SORTS.has(sort) ? `case when ${bare} is null then 1 else 0 end, ` : '';
+  return ` order by ${emptyLast}${col} ${dir}${extra}, r.started_at desc, r.id desc`;
 }
 
+/** Sort columns that may be empty: a run without a failed step, a run still going (no duration). */
+const NULLABLE_SORTS = new Set<RunSort>(['failedStep', 'duration']);
+
+/** Every verdict a run may hold, in the order SQLite sorts them (binary text); a spec checks it against the DTO. */
+export const RUN_VERDICTS_SORTED = ['aborted', 'error', 'fail', 'pass', 'running'] as const;
+
 /**
- * The step names of the runs' failed steps, as the plan version each run used names them (read from the
- * version's steps for the listed runs only; a key the plan does not know stays without a name).
+ * The name of a failed step as the plan version the run used names it (a key the plan does not know stays
+ * without a name). The versions' steps are read once per listed page, not once per row.
  */
-export const FAILED_STEP_NAME_SQL = (count: number) =>
-  `select r.id, (select json_extract(s.value, '$.name') from json_each(pv.steps) s where json_extract(s.value, '$.key') = r.failed_step_key) as name ` +
-  `from test_runs r join plan_versions pv on pv.id = r.plan_version_id where r.failed_step_key is not null and r.id in (${Array(count).fill('?').join(', ')})`;
+export function failedStepNames(rows: { id: number; planVersionId: number; failedStepKey: string | null }[], steps: Map<number, { key: string; name: string }[]>): Map<number, string> {
+  const names = new Map<number, string>();
+  for (const r of rows) {
+    if (r.failedStepKey === null) continue;
+    const step = steps.get(r.planVersionId)?.find((s) => s.key === r.failedStepKey);
+    if (step) names.set(r.id, step.name);
+  }
+  return names;
+}
 
 /** `%`, `_` and the escape character itself match literally in a serial search. */
 export function likePattern(part: string): string {
@@ -81,7 +96,7 @@ export function likePattern(part: string): string {
  * The WHERE clause of a run filter on `test_runs r`, without joins: the serial goes through a sub-select on
  * units, so the COUNT reads test_runs (and its indexes) alone.
  */
-export function runFilterSql(q: RunFilter): { where: string; params: unknown[] } {
+export function runFilterSql(q: RunFilter): { where: string; clauses: string[]; params: unknown[] } {
   const clauses: string[] = [];
   const params: unknown[] = [];
   if (q.stationId) {
@@ -110,7 +125,7 @@ export function runFilterSql(q: RunFilter): { where: string; params: unknown[] }
     clauses.push('r.started_at < ?');
     params.push(new Date(q.to).getTime());
   }
-  return { where: clauses.length ? ` where ${clauses.join(' and ')}` : '', params };
+  return { where: clauses.length ? ` where ${clauses.join(' and ')}` : '', clauses, params };
 }
 
 /** A stored date: epoch milliseconds as the ORM writes them (or text from a hand-made row). */

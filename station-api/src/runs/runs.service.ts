@@ -7,33 +7,57 @@ import type { CalibrationRecordDto } from '../fixtures/dto/calibration.dto';
 import type { RunDetailDto, RunListDto, RunsQueryDto } from './dto/runs.dto';
 import type { PlanStep } from '../plans/plan-definition';
 import { RunRefusal } from './run-refusal';
-import { FAILED_STEP_NAME_SQL, MEASUREMENT_VIEW_SELECT, RUN_VIEW_SELECT, rowToMeasurementView, rowToRunView, runFilterSql, runOrderSql } from './run-queries';
+import { pageRunIds, type SqlExec } from './run-list-order';
+import { failedStepNames, MEASUREMENT_VIEW_SELECT, RUN_VIEW_SELECT, rowToMeasurementView, rowToRunView, runFilterSql } from './run-queries';
 
 /** Read side of runs: lists with filters and one run with every measurement. */
 @Injectable()
 export class RunsService {
+  /** Steps of the plan versions the listed runs used, by `id:checksum` (a few versions a year; bounded) */
+  private readonly stepsByVersion = new Map<string, PlanStep[]>();
+
   constructor(private readonly em: EntityManager) {}
 
   /**
    * Newest first unless sorted by another whitelisted column. `to` is exclusive so consecutive windows do not
    * overlap. `serial` matches any part, any case. Each run carries its failed step's name for people to read.
+   * The page's ids come from an index (run-list-order.ts), then only those runs are read and joined.
    */
   async list(q: RunsQueryDto): Promise<RunListDto> {
     const conn = this.em.getConnection();
+    const exec: SqlExec = (sql, params) => conn.execute<Record<string, unknown>[]>(sql, params);
     const { where, params } = runFilterSql(q);
-    const rows = await conn.execute<Record<string, unknown>[]>(
-      `${RUN_VIEW_SELECT}${where}${runOrderSql(q.sort, q.dir ?? (q.sort && q.sort !== 'startedAt' ? 'asc' : 'desc'))} limit ? offset ?`,
-      [...params, q.limit ?? 50, q.offset ?? 0],
-    );
     // the count needs no join: every filter is on test_runs itself (the serial through a sub-select)
-    const [{ total }] = await conn.execute<{ total: number }[]>(`select count(*) as total from test_runs r${where}`, params);
-    const ids = rows.map((r) => Number(r.id));
-    const names = new Map<number, string>();
-    if (ids.length > 0) {
-      for (const n of await conn.execute<{ id: number; name: string | null }[]>(FAILED_STEP_NAME_SQL(ids.length), ids)) {
-        if (n.name !== null) names.set(Number(n.id), String(n.name));
+    const [{ total }] = await exec(`select count(*) as total from test_runs r${where}`, params);
+    const ids = await pageRunIds(exec, { ...q, limit: q.limit ?? 50, offset: q.offset ?? 0 }, Number(total));
+    if (ids.length === 0) return { items: [], total: Number(total) };
+    const marks = ids.map(() => '?').join(', ');
+    const byId = new Map<number, Record<string, unknown>>((await exec(`${RUN_VIEW_SELECT} where r.id in (${marks})`, ids)).map((r) => [Number(r.id), r]));
+    const rows = ids.flatMap((id): Record<string, unknown>[] => {
+      const r = byId.get(id);
+      return r ? [r] : [];
+    });
+    const failed = rows
+      .filter((r) => r.failed_step_key !== null && r.failed_step_key !== undefined)
+      .map((r) => ({ id: Number(r.id), planVersionId: Number(r.plan_version_id), failedStepKey: String(r.failed_step_key), checksum: String(r.plan_checksum) }));
+    const steps = new Map<number, PlanStep[]>();
+    const missing = new Set<number>();
+    for (const r of failed) {
+      // a version's steps are fixed by its checksum: a changed version has another checksum and is read again
+      const known = this.stepsByVersion.get(`${r.planVersionId}:${r.checksum}`);
+      if (known) steps.set(r.planVersionId, known);
+      else missing.add(r.planVersionId);
+    }
+    if (missing.size > 0) {
+      const ids = [...missing];
+      for (const v of await exec(`select id, checksum, steps from plan_versions where id in (${ids.map(() => '?').join(', ')})`, ids)) {
+        const parsed = (typeof v.steps === 'string' ? JSON.parse(v.steps) : v.steps) as PlanStep[];
+        steps.set(Number(v.id), parsed);
+        if (this.stepsByVersion.size >= 500) this.stepsByVersion.clear();
+        this.stepsByVersion.set(`${Number(v.id)}:${String(v.checksum)}`, parsed);
       }
     }
+    const names = failedStepNames(failed, steps);
     return { items: rows.map((r) => ({ ...rowToRunView(r), failedStepName: names.get(Number(r.id)) ?? null })), total: Number(total) };
   }
 

@@ -5,6 +5,7 @@ import type { StationEventsPublisher } from '../realtime/station-events.publishe
 import { Station } from '../stations/station.entity';
 import { calibrationWarnDays } from '../config/calibration.config';
 import { readiness, ReadinessInput } from '../stations/station-readiness';
+import { factsOfStation, releasedPlanProducts, stationFacts, type StationFacts } from './station-facts';
 import type { ActiveRuns } from './active-runs';
 import type { RunPreconditions } from './run-preconditions';
 import { RunRefusal } from './run-refusal';
@@ -51,17 +52,36 @@ export class StationStatusService {
 
   /** State and reasons of a station whose fixture and active lot (with product) are loaded. */
   async statusOfLoaded(station: Station, em = this.em.fork()): Promise<StationStatus> {
-    const lot = station.activeLot;
-    const plan = lot ? await this.preconditions.releasedPlan(em, lot.product.id) : null;
-    const fixture = station.fixture;
+    const facts = factsOfStation(station);
+    const released = facts.lot ? await releasedPlanProducts(em, [facts.lot.productId]) : new Set<number>();
+    return this.statusOfFacts(facts, !!facts.lot && released.has(facts.lot.productId));
+  }
+
+  /**
+   * The state of every station matching `activeOnly`, in code order, read with two statements (the stations with
+   * their fixture, lot and product; which products have a released plan): the board's path. The same rule and
+   * wording as {@link status}; the board e2e compares them station by station.
+   */
+  async statusesOfStations(em: EntityManager, activeOnly: boolean): Promise<{ facts: StationFacts; status: StationStatus }[]> {
+    const facts = await stationFacts(em, activeOnly);
+    const released = await releasedPlanProducts(
+      em,
+      facts.flatMap((f) => (f.lot ? [f.lot.productId] : [])),
+    );
+    return facts.map((f) => ({ facts: f, status: this.statusOfFacts(f, !!f.lot && released.has(f.lot.productId)) }));
+  }
+
+  /** State and reasons from plain facts (no query). */
+  statusOfFacts(station: StationFacts, hasReleasedPlan: boolean): StationStatus {
+    const { lot, fixture } = station;
     const a = this.active.on(station.id);
     const running = a ? { runId: a.runId, serial: a.serial } : undefined;
     const r = readiness({
       now: new Date(),
       station,
-      fixture,
-      lot: lot ? { code: lot.code, state: lot.state, holdReason: lot.holdReason, partNumber: lot.product.partNumber } : undefined,
-      hasReleasedPlan: !!plan,
+      fixture: fixture ?? undefined,
+      lot: lot ? { code: lot.code, state: lot.state, holdReason: lot.holdReason, partNumber: lot.partNumber } : undefined,
+      hasReleasedPlan,
       fixtureFault: fixture ? this.links.faultOf(fixture.id)?.message : undefined,
       running,
       calibrationWarnDays: calibrationWarnDays(),
@@ -83,7 +103,7 @@ export class StationStatusService {
             contactCyclesAllowed: fixture.contactCyclesAllowed,
           }
         : null,
-      activeLot: lot ? { id: lot.id, code: lot.code, partNumber: lot.product.partNumber, state: lot.state } : null,
+      activeLot: lot ? { id: lot.id, code: lot.code, partNumber: lot.partNumber, state: lot.state } : null,
     };
   }
 

@@ -43,6 +43,11 @@ export enum RunEndReason {
 @Index({ properties: ['verdict', 'startedAt'] })
 // issue 12 (Migration20261202155000): first and latest judged run of a unit
 @Index({ properties: ['unit', 'attempt'] })
+// issue 11, runs list sorts (Migration20261203030000): each sort read from an index; the operator-name (nocase),
+// duration (expression) and units serial (nocase) indexes are created there only (MikroORM cannot declare them)
+@Index({ properties: ['attempt', 'startedAt'] })
+@Index({ properties: ['failedStepKey', 'startedAt'] })
+@Index({ properties: ['planVersion', 'startedAt'] })
 // at most one running run per unit and per station: partial unique indexes created by Migration20261202130000
 // (MikroORM cannot declare a partial index on an entity)
 export class TestRun extends BaseEntity {
@@ -76,7 +81,6 @@ export class TestRun extends BaseEntity {
   attempt!: number;
 
   @Enum(() => RunVerdict)
-  @Index()
   verdict: RunVerdict = RunVerdict.Running;
 
   @Property()
@@ -86,9 +90,8 @@ export class TestRun extends BaseEntity {
   @Property({ nullable: true })
   finishedAt?: Date;
 
-  /** First failing step key, for Pareto charts */
+  /** First failing step key, for Pareto charts (indexed with startedAt, see the class) */
   @Property({ nullable: true })
-  @Index()
   failedStepKey?: string;
 
   @Property({ type: 'text', nullable: true })
