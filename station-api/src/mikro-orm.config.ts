@@ -23,7 +23,10 @@ export function createOrmConfig(dbPath: string, overrides: Partial<Options> = {}
       emit: 'ts',
       transactional: true,
       allOrNothing: true,
-      snapshot: true,
+      // no schema snapshot after a run: migrations are written by hand (nothing diffs against it), and taking it
+      // failed on every analysed database (MikroORM 6.6 reads `sqlite_stat1`'s untyped columns and throws after
+      // the migrations committed, so a plant's first start after an upgrade stopped; test/migration-upgrade)
+      snapshot: false,
       snapshotName: '.snapshot-railwright',
     },
     seeder: {
