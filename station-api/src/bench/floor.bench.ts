@@ -18,6 +18,7 @@ import { mkdtempSync, rmSync, statSync } from 'node:fs';
 import { cpus, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
+import { describeStorageSize, measurementStorageSize } from '../runs/measurement-storage-size';
 import { ms, quantile } from './bench-stats';
 
 function arg(name: string, fallback: number): number {
@@ -212,6 +213,9 @@ async function main(): Promise<void> {
           `${(bytes / 1e6).toFixed(1)} MB = ${(bytes / Number(measurementCount)).toFixed(0)} bytes per measurement (whole file)` +
           (tableBytes ? `, measurements table + its indexes ${(tableBytes / Number(measurementCount)).toFixed(0)} bytes per measurement` : ''),
       );
+      // issue 11's figure (compact storage, docs/storage-design.md): captures excluded, by dbstat
+      const storage = await measurementStorageSize(sql);
+      if (storage) console.log(describeStorageSize(storage));
       console.log(`repetitions: ${reps} after 3 warm-ups; warm page cache; times in ms; service = the code the HTTP route calls`);
       console.log(`${'question'.padEnd(44)} ${'svc p50'.padStart(8)} ${'svc p95'.padStart(8)} ${'SQL p50'.padStart(8)} ${'SQL p95'.padStart(8)} ${'ratio'.padStart(6)} | no stats: ${'svc p50'.padStart(8)} ${'SQL p50'.padStart(8)}`);
       for (const [name, a] of withStats) {
