@@ -172,6 +172,17 @@ describe('database upgrade from the previous release', () => {
       );
       const [added] = await sql("select id from measurements where step_key = 'extra'");
       expect(Number(added.id)).toBe(maxBefore + 1);
+      // what the old table's constraints refused is refused with a message (and times the offsets cannot hold)
+      const bad = (verdict: string, decision: string | null, at: unknown) =>
+        sql(
+          'insert into measurements (created_at, updated_at, run_id, step_index, step_key, step_name, quantity, name, value, unit, uncertainty, rule, verdict, decision, raw, started_at, measured_at) ' +
+            "values (?, ?, 2, 7, 'bad', 'Bad', 'x', 'X', 1.5, 'V', 0, 'simple', ?, ?, null, ?, ?)",
+          [t, t, verdict, decision, at, at],
+        );
+      await expect(bad('maybe', null, t)).rejects.toThrow(/verdict must be pass, fail or guard_fail/);
+      await expect(bad('pass', 'likely', t)).rejects.toThrow(/decision must be empty or pass/);
+      await expect(bad('pass', 'pass', '2026-11-25T08:00:00Z')).rejects.toThrow(/must be epoch milliseconds/);
+      expect(await sql("select count(*) as n from measurements where step_key = 'bad'")).toEqual([{ n: 0 }]);
       // stored measurements are never changed or removed, by any path
       await expect(sql("update measurements set value = 2 where step_key = 'extra'")).rejects.toThrow(/view/);
       await expect(sql('update measurement_values set value = 2')).rejects.toThrow(/cannot be changed/);
