@@ -189,6 +189,10 @@ describe('database upgrade from the previous release', () => {
       await expect(sql('delete from measurement_values')).rejects.toThrow(/cannot be deleted/);
       await expect(sql('delete from step_captures')).rejects.toThrow(/cannot be deleted/);
       await expect(sql('update measurement_defs set high_limit = 99')).rejects.toThrow(/cannot be changed/);
+      // and back: the previous release's wide table with every row as it was
+      await after.getMigrator().down();
+      expect(await sql("select type from sqlite_master where name = 'measurements'")).toEqual([{ type: 'table' }]);
+      expect(await sql("select *, typeof(value) as tv, typeof(raw) as tr, typeof(created_at) as tc from measurements where step_key <> 'extra' order by id")).toEqual(before);
     } finally {
       await after.close(true);
     }
