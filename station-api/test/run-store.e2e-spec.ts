@@ -32,9 +32,11 @@ describe('run store and lean run reads', () => {
     for (const m of detail.measurements as MeasurementView[]) byStep.set(m.stepKey, [...(byStep.get(m.stepKey) ?? []), m]);
     const [stepKey, rows] = [...byStep].find(([, ms]) => ms.length >= 2)!;
     const earlier = [...byStep.keys()].slice(0, [...byStep.keys()].indexOf(stepKey));
-    // the disk refuses exactly that row (self-constructed failure: a trigger that aborts its INSERT)
+    // the disk refuses exactly that row (self-constructed failure: a trigger that aborts its INSERT; on the
+    // physical values table, as `measurements` is a view since Migration20261203010000)
     await sql(
-      `create trigger refuse_second before insert on measurements when new.step_key = '${stepKey}' and new.quantity = '${rows[1].quantity}' ` +
+      `create trigger refuse_second before insert on measurement_values when new.def_id in ` +
+        `(select id from measurement_defs where step_key = '${stepKey}' and quantity = '${rows[1].quantity}') ` +
         `begin select raise(abort, 'simulated write failure'); end`,
     );
     try {

@@ -21,6 +21,7 @@ import { mkdtempSync, rmSync, statSync } from 'node:fs';
 import { cpus, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
+import { describeStorageSize, measurementStorageSize } from '../runs/measurement-storage-size';
 import { ms, quantile } from './bench-stats';
 
 function arg(name: string, fallback: number): number {
@@ -131,7 +132,7 @@ async function main(): Promise<void> {
       try {
         const parts = await sql(
           "select m.tbl_name as t, sum(case when d.name = m.tbl_name then d.pgsize else 0 end) as rows, sum(case when d.name <> m.tbl_name then d.pgsize else 0 end) as idx " +
-            "from dbstat d join sqlite_master m on m.name = d.name where m.tbl_name in ('measurements', 'test_runs', 'units') group by m.tbl_name order by m.tbl_name",
+            "from dbstat d join sqlite_master m on m.name = d.name where m.tbl_name in ('measurement_values', 'measurement_defs', 'step_captures', 'test_runs', 'units') group by m.tbl_name order by m.tbl_name",
         );
         tables = parts.map((t) => `${String(t.t)} ${perM(Number(t.rows))} + indexes ${perM(Number(t.idx))}`).join('; ');
       } catch {
@@ -147,6 +148,9 @@ async function main(): Promise<void> {
           `file before start-up ${(bytes / 1e6).toFixed(1)} MB = ${perM(bytes)} bytes per measurement; after its migrations, pages in use ${(used / 1e6).toFixed(1)} MB = ${perM(used)} bytes per measurement`,
       );
       log2(`bytes per measurement by table: ${tables}`);
+      // issue 11's figure (compact storage, docs/storage-design.md): captures excluded, by dbstat
+      const storage = await measurementStorageSize(sql);
+      if (storage) log2(describeStorageSize(storage));
       log2(`repetitions: ${reps} after 3 warm-ups for each figure (fewer, at least ${MIN_SAMPLES}, where a figure would take over ${BUDGET_MS / 1000} s: see samples); warm page cache; times in ms; svc = the service the HTTP route calls (one complete answer: SQL run, rows read, objects built); SQL = hand-written SQL, same question`);
       const h = (x: string, w = 8) => x.padStart(w);
       log2(

@@ -18,6 +18,7 @@ import { mkdtempSync, rmSync, statSync } from 'node:fs';
 import { cpus, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
+import { describeStorageSize, measurementStorageSize } from '../runs/measurement-storage-size';
 import { ms, quantile } from './bench-stats';
 import { describeHistory, type BuiltHistory } from './floor-bench-build';
 import { yieldQuestions } from './yield-questions';
@@ -118,6 +119,9 @@ async function main(): Promise<void> {
         `database: ${built.runs} runs, ${built.units} units, ${built.lots.length} lots, ${measurementCount} measurements; built in ${(built.buildMs / 1000).toFixed(1)} s; ` +
           `${(bytes / 1e6).toFixed(1)} MB = ${(bytes / Number(measurementCount)).toFixed(0)} bytes per measurement (whole file)`,
       );
+      // issue 11's figure (compact storage, docs/storage-design.md): captures excluded, by dbstat
+      const storage = await measurementStorageSize(sql);
+      if (storage) console.log(describeStorageSize(storage));
       console.log(`repetitions: ${reps} after 3 warm-ups; warm page cache; times in ms; svc = the service the HTTP route calls; SQL = hand-written SQL, same answer`);
       const h = (s: string) => s.padStart(8);
       console.log(`${'question'.padEnd(52)} ${h('svc p50')} ${h('svc p95')} ${h('svc mean')} ${h('svc max')} | ${h('SQL p50')} ${h('SQL p95')} ${h('SQL mean')} ${h('SQL max')} | ratio p50  p95`);

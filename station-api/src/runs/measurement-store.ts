@@ -9,10 +9,19 @@ const COLUMNS =
   '`value`, `unit`, `low_limit`, `high_limit`, `guarded_low`, `guarded_high`, `uncertainty`, `rule`, `verdict`, `decision`, `raw`, `started_at`, `measured_at`';
 const PLACEHOLDERS = `(${Array.from({ length: 21 }, () => '?').join(', ')})`;
 
-/** The INSERT of `count` measurements as ONE statement: SQLite runs a single statement as one transaction. */
+/**
+ * The INSERT of `count` measurements as ONE statement: SQLite runs a single statement, with the work of the
+ * view's INSTEAD OF trigger (Migration20261203010000), as one transaction. No RETURNING: on a view it gives a
+ * null id for every row (SQLite 3.44); {@link MeasurementStore.storeStep} reads the ids after the commit.
+ */
 export function insertMeasurementsSql(count: number): string {
-  return `insert into \`measurements\` (${COLUMNS}) values ${Array.from({ length: count }, () => PLACEHOLDERS).join(', ')} returning \`id\``;
+  return `insert into \`measurements\` (${COLUMNS}) values ${Array.from({ length: count }, () => PLACEHOLDERS).join(', ')}`;
 }
+
+/** The ids of the latest `count` measurements of one step of one run, newest first (a run's rows are found by the values table's run index). */
+const STEP_IDS_SQL =
+  'select v.`id` as `id` from `measurement_values` v join `measurement_defs` d on d.`id` = v.`def_id` ' +
+  'where v.`run_id` = ? and d.`step_index` = ? order by v.`id` desc limit ?';
 
 /** The values of one row of {@link insertMeasurementsSql}: dates as epoch milliseconds and JSON as text, as the ORM stores them on SQLite. */
 export function measurementParams(runId: number, row: JudgedRow, now: number): unknown[] {
@@ -57,12 +66,18 @@ export class MeasurementStore {
   /** Stores all judged rows of one step in one transaction; resolves with their views once committed. */
   async storeStep(runId: number, rows: readonly JudgedRow[]): Promise<MeasurementView[]> {
     if (rows.length === 0) return [];
+    const stepIndex = rows[0].stepIndex;
+    if (rows.some((r) => r.stepIndex !== stepIndex)) throw new Error('one step at a time: rows of several steps given');
     const now = Date.now();
     const params = rows.flatMap((row) => measurementParams(runId, row, now));
-    const ids = await this.em.getConnection().execute<{ id: number }[]>(insertMeasurementsSql(rows.length), params, 'all');
+    const conn = this.em.getConnection();
+    await conn.execute(insertMeasurementsSql(rows.length), params, 'run');
+    // committed; the ids are read before anything about the step is shown. Only this run's engine writes
+    // this run's rows, and the trigger inserts the rows in the order given with growing AUTOINCREMENT ids,
+    // so the step's newest ids, ascending, are the rows in order (a step repeated in a run is stored again
+    // with larger ids)
+    const ids = await conn.execute<{ id: number }[]>(STEP_IDS_SQL, [runId, stepIndex, rows.length], 'all');
     if (ids.length !== rows.length) throw new Error(`stored ${ids.length} of ${rows.length} measurements`);
-    // AUTOINCREMENT ids grow within the statement, so ascending ids are the rows in the order given
-    // (SQLite does not promise the order of RETURNING rows)
     const sorted = ids.map((r) => Number(r.id)).sort((a, b) => a - b);
     return rows.map((row, i) => toMeasurementView({ ...row, id: sorted[i] }, runId));
   }

@@ -1,4 +1,4 @@
-import { Entity, Enum, Index, ManyToOne, Property } from '@mikro-orm/core';
+import { Entity, Enum, ManyToOne, Property } from '@mikro-orm/core';
 import { BaseEntity } from '../common/base.entity';
 import { TestRun } from './test-run.entity';
 
@@ -12,14 +12,15 @@ export enum MeasurementVerdict {
 /**
  * One judged quantity. Written once, with the other measurements of its step in one transaction, as soon as
  * the step is judged; never updated.
- * The limits in force are copied here so the record stands alone.
+ * The limits in force are part of the record so it stands alone.
+ *
+ * `measurements` is a VIEW (issue 11, Migration20261203010000, docs/storage-design.md): the row is stored in
+ * `measurement_values`, its step, quantity, limits and U once in `measurement_defs`, a long capture once per
+ * step in `step_captures`. The view shows today's columns, so this entity only reads; rows are written by
+ * SQL INSERT into the view (runs/measurement-store.ts), never through the ORM. The indexes are on
+ * `measurement_values`: (run_id, def_id, value) and (def_id, measured_at).
  */
 @Entity({ tableName: 'measurements' })
-// trend of one quantity, the value included so the index alone answers it (Migration20261203030000, issue 11;
-// it replaced (stepKey, quantity, measuredAt) and dropped (stepKey, measuredAt), which no reader needed)
-@Index({ properties: ['stepKey', 'quantity', 'measuredAt', 'value'] })
-// one quantity of the filtered runs: capability, control chart (Migration20261202155000)
-@Index({ properties: ['run', 'stepKey', 'quantity', 'value'] })
 export class Measurement extends BaseEntity {
   @ManyToOne(() => TestRun)
   run!: TestRun;

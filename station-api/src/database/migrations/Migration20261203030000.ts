@@ -27,20 +27,11 @@ export class Migration20261203030000 extends Migration {
     for (const column of ['station_id', 'lot_id', 'fixture_id', 'product_id', 'unit_id', 'verdict']) {
       this.addSql(`drop index if exists \`test_runs_${column}_index\`;`);
     }
-    // trend of one quantity: the value in the index answers it from the index alone (bench:floor: 30 ms of row
-    // lookups for 8,000 values -> about 1 ms); it replaces the index without the value
-    this.addSql(
-      'create index if not exists `measurements_step_key_quantity_measured_at_value_index` on `measurements` (`step_key`, `quantity`, `measured_at`, `value`);',
-    );
-    this.addSql('drop index if exists `measurements_step_key_quantity_measured_at_index`;');
-    // no reader asks for a step's measurements by time without the quantity: 30 bytes per measurement for nothing
-    this.addSql('drop index if exists `measurements_step_key_measured_at_index`;');
+    // the trend of one quantity is served by Migration20261203010000's (def_id, measured_at) index on
+    // measurement_values: `measurements` is a view from that migration on, so no index is made on it here
   }
 
   override async down(): Promise<void> {
-    this.addSql('create index if not exists `measurements_step_key_measured_at_index` on `measurements` (`step_key`, `measured_at`);');
-    this.addSql('create index if not exists `measurements_step_key_quantity_measured_at_index` on `measurements` (`step_key`, `quantity`, `measured_at`);');
-    this.addSql('drop index if exists `measurements_step_key_quantity_measured_at_value_index`;');
     for (const column of ['station_id', 'lot_id', 'fixture_id', 'product_id', 'unit_id', 'verdict']) {
       this.addSql(`create index if not exists \`test_runs_${column}_index\` on \`test_runs\` (\`${column}\`);`);
     }
