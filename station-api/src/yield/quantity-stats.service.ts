@@ -1,6 +1,6 @@
 import { EntityManager } from '@mikro-orm/sqlite';
 import { BadRequestException, Injectable } from '@nestjs/common';
-import { andersonDarling, capability, histogram, individualsChart, MIN_AD_SAMPLE, xbarRChart, type SpecLimits } from '../stats';
+import { andersonDarling, capability, histogram, individualsChart, MIN_AD_SAMPLE, sortedSample, xbarRChart, type SpecLimits } from '../stats';
 import type { ControlChartQueryDto, QuantityQueryDto, YieldFilterDto } from './dto/yield-query.dto';
 import { ALL_RUN_FILTERS, resolveFilter, runConditions, type RunFilter, type SqlPart } from './yield-filter';
 import type { CapabilityView, ChartPanel, ControlChartView, QuantityChoice, QuantityLimits } from '../contract/yield-views';
@@ -65,7 +65,9 @@ export class QuantityStatsService {
       return { ...base, histogram: null, capability: null, normalityPValue: null, problem: 'No values of this quantity in the selection.' };
     }
     const include = [limits.lowLimit, limits.highLimit, limits.guardedLow, limits.guardedHigh].filter((v): v is number => v !== null);
-    const hist = histogram(values, { include });
+    // one sort shared by the histogram's quartiles and range and the normality test
+    const sorted = sortedSample(values);
+    const hist = histogram(values, { include, sorted });
     const spec: SpecLimits = {
       ...(limits.lowLimit !== null ? { lsl: limits.lowLimit } : {}),
       ...(limits.highLimit !== null ? { usl: limits.highLimit } : {}),
@@ -85,7 +87,7 @@ export class QuantityStatsService {
     let normalityPValue: number | null = null;
     if (values.length >= MIN_AD_SAMPLE) {
       try {
-        normalityPValue = andersonDarling(values).pValue;
+        normalityPValue = andersonDarling(values, sorted).pValue;
       } catch (e) {
         if (!(e instanceof RangeError)) throw e;
       }

@@ -84,7 +84,7 @@ export const ALL_RUN_FILTERS = ['fromMs', 'toMs', 'lotId', 'productId', 'station
  * Lot and product are the unit's own and filter before ranking; the date range and station filter the first
  * judged run, so a unit belongs to the period, station, fixture, operator and shift of its first test.
  * Columns: run_id, unit_id, first_verdict, last_verdict, started_at, lot_id, product_id, station_id, fixture_id,
- * operator_id.
+ * operator_id. Materialized: a statement that reads it several times (breakdown, trend, RTY) ranks the runs once.
  */
 export function perUnitCte(f: RunFilter): SqlPart {
   const pre = runConditions(f, 'r', ['lotId', 'productId']);
@@ -103,7 +103,7 @@ export function perUnitCte(f: RunFilter): SqlPart {
     first_value(r.verdict) over (partition by r.unit_id order by r.attempt desc, r.id desc) as last_verdict
   from test_runs r where r.verdict in ('pass', 'fail')${pre.sql}${narrowSql}
 ),
-per_unit as (
+per_unit as materialized (
   select f.id as run_id, f.unit_id, f.verdict as first_verdict, f.last_verdict, f.started_at, f.lot_id, f.product_id,
     f.station_id, f.fixture_id, f.operator_id
   from ranked f where f.first_rank = 1${post.sql}
