@@ -54,6 +54,7 @@ describe('yield figures read lean (run_steps summary, one ranking) and answer as
     orm = await MikroORM.init(createOrmConfig(join(dir, 'lean.sqlite'), { debug: false }));
     const built = await buildHistory(orm, 1500, () => undefined);
     lots = built.lots;
+    stationIds = built.stations.map((s) => s.id);
     productId = Number((await sql('select product_id from lots where id = ?', [lots[0].id]))[0].product_id);
     const config = { get: () => '06:00,14:00,22:00' } as unknown as ConfigService<never, true>;
     service = new YieldFiguresService(orm.em.fork() as never, config as never);
@@ -108,7 +109,15 @@ describe('yield figures read lean (run_steps summary, one ranking) and answer as
       q: () => ({ productId, from: new Date(Date.now() - 120 * 86400_000).toISOString() }),
       where: () => [' and f.started_at >= ?', [Date.now() - 120 * 86400_000]],
     },
+    {
+      // a unit whose first judged run was on another station is not this station's, even if retested here
+      name: 'the product at one station',
+      q: () => ({ productId, stationId: stationId() }),
+      where: () => [' and f.station_id = ?', [stationId()]],
+    },
   ];
+  const stationId = () => stationIds[1];
+  let stationIds: number[] = [];
 
   for (const c of cases) {
     it(`gives the RTY steps and the first-pass / final counts the measurement-based SQL gave (${c.name})`, async () => {

@@ -16,16 +16,17 @@ export interface YieldQuestion {
 
 type Sql = (q: string, p?: unknown[]) => Promise<Record<string, unknown>[]>;
 
-/** Per unit in scope: its first judged run and the verdict of its latest judged run (hand-written form). */
+/**
+ * Per unit in scope: its first judged run (no judged run of the unit before it in attempt, id order) with the
+ * verdict of its latest judged run (hand-written form; a unit's runs share its lot and product, so the probes
+ * need only the unit).
+ */
 function perUnit(scope: string, firstFilter = ''): string {
-  return `with scope_units as (select distinct r.unit_id from test_runs r where r.verdict in ('pass', 'fail') and ${scope}),
-pu as (
-  select s.unit_id,
-    (select r.id from test_runs r where r.unit_id = s.unit_id and r.verdict in ('pass', 'fail') order by r.attempt, r.id limit 1) as first_id,
-    (select r.verdict from test_runs r where r.unit_id = s.unit_id and r.verdict in ('pass', 'fail') order by r.attempt desc, r.id desc limit 1) as last_verdict
-  from scope_units s
-),
-fr as materialized (select f.*, pu.last_verdict from pu join test_runs f on f.id = pu.first_id where 1 = 1${firstFilter})`;
+  return `with fr as materialized (
+  select f.*, (select l.verdict from test_runs l where l.unit_id = f.unit_id and l.verdict in ('pass', 'fail') order by l.attempt desc, l.id desc limit 1) as last_verdict
+  from test_runs f where f.verdict in ('pass', 'fail') and ${scope}${firstFilter}
+    and not exists (select 1 from test_runs e where e.unit_id = f.unit_id and e.verdict in ('pass', 'fail') and (e.attempt < f.attempt or (e.attempt = f.attempt and e.id < f.id)))
+)`;
 }
 
 export async function yieldQuestions(app: INestApplicationContext, sql: Sql, built: BuiltHistory): Promise<YieldQuestion[]> {
@@ -76,8 +77,8 @@ export async function yieldQuestions(app: INestApplicationContext, sql: Sql, bui
     return { statements, run: async () => sql(statement, p) };
   };
 
-  const lotFigures = figuresSql('r.lot_id = ?', [lot.id], '', [], 'fr.station_id', 'max(d.code)');
-  const productFigures = figuresSql('r.product_id = ? and r.started_at >= ?', [productId, fromMs], ' and f.started_at >= ?', [fromMs], 'fr.lot_id', 'max(d.code)');
+  const lotFigures = figuresSql('f.lot_id = ?', [lot.id], '', [], 'fr.station_id', 'max(d.code)');
+  const productFigures = figuresSql('f.product_id = ?', [productId], ' and f.started_at >= ?', [fromMs], 'fr.lot_id', 'max(d.code)');
 
   const paretoSql = (byQuantity: boolean, where: string, params: unknown[]) => {
     const statements: [string, unknown[]][] = [

@@ -121,7 +121,7 @@ async function main(): Promise<void> {
       console.log(`Railwright yield benchmark — ${new Date().toISOString()}`);
       console.log(`machine: ${cpus().length} cores (${cpus()[0]?.model ?? 'unknown'}), Node ${process.version}; load average (1 min) ${load0[0].toFixed(1)} at the start of timing, ${load1[0].toFixed(1)} at the end`);
       console.log(
-        `database: ${built.runs} runs, ${built.units} units, ${built.lots.length} lots, ${measurementCount} measurements; built in ${(built.buildMs / 1000).toFixed(1)} s; ` +
+        `database: ${built.runs} runs, ${built.units} units, ${built.lots.length} lots, ${measurementCount} measurements; ${Number.isFinite(built.buildMs) ? `built in ${(built.buildMs / 1000).toFixed(1)} s` : `reused ${dbPath}`}; ` +
           `${(bytes / 1e6).toFixed(1)} MB = ${(bytes / Number(measurementCount)).toFixed(0)} bytes per measurement (whole file)`,
       );
       console.log(
