@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildHistory } from '../src/bench/floor-bench-build';
 import type { BreakdownDimension } from '../src/contract/yield-views';
 import { insertMeasurementsSql, measurementParams } from '../src/runs/measurement-store';
+import { QuantityStatsService } from '../src/yield/quantity-stats.service';
 import { YieldFiguresService } from '../src/yield/yield-figures.service';
 
 /*
@@ -140,6 +141,51 @@ describe('yield figures read lean (run_steps summary, one ranking) and answer as
       expect(view.overall.firstPass.x).toBeLessThan(view.overall.unitsTested);
     });
   }
+
+  it('gives capability the values and the latest of the limit sets the two-statement SQL gave, in one pass', async () => {
+    const quantity = new QuantityStatsService(orm.em.fork() as never);
+    const [m] = await sql(
+      `select m.step_key, m.quantity from measurements m join test_runs r on r.id = m.run_id where r.verdict = 'pass' and m.value is not null and m.low_limit is not null and m.high_limit is not null order by m.id desc limit 1`,
+    );
+    const ask = { productId, step: String(m.step_key), quantity: String(m.quantity) };
+    const from = `from test_runs r join measurements m on m.run_id = r.id where r.verdict in ('pass', 'fail') and m.step_key = ? and m.quantity = ? and m.value is not null and r.product_id = ?`;
+    const reference = async () => {
+      const p = [ask.step, ask.quantity, productId];
+      const values = (await sql(`select m.value ${from} order by r.started_at, r.id, m.id`, p)).map((r) => r.value);
+      const sets = await sql(
+        `select m.low_limit, m.high_limit, m.guarded_low, m.guarded_high, m.unit, m.name, m.step_name, max(r.started_at) as last_at ${from}
+         group by m.low_limit, m.high_limit, m.guarded_low, m.guarded_high order by last_at desc`,
+        p,
+      );
+      return { values, sets };
+    };
+    const check = async () => {
+      const view = await quantity.capability(ask as never);
+      const ref = await reference();
+      expect(view.n).toBe(ref.values.length);
+      expect(view.limitSets).toBe(ref.sets.length);
+      expect(view.limits).toEqual({ lowLimit: ref.sets[0].low_limit, highLimit: ref.sets[0].high_limit, guardedLow: ref.sets[0].guarded_low, guardedHigh: ref.sets[0].guarded_high });
+      expect([view.name, view.stepName, view.unit]).toEqual([ref.sets[0].name, ref.sets[0].step_name, ref.sets[0].unit]);
+      return view;
+    };
+    const before = await check();
+    // a newer judged run measured against a widened limit: a second set, and the latest
+    const [last] = await sql(`select r.id from test_runs r join measurements m on m.run_id = r.id where r.verdict in ('pass', 'fail') and m.step_key = ? and m.quantity = ? order by r.started_at desc, r.id desc limit 1`, [ask.step, ask.quantity]);
+    const [{ id: runId }] = await sql(
+      `insert into test_runs (created_at, updated_at, unit_id, lot_id, product_id, station_id, fixture_id, plan_version_id, operator_id, attempt, verdict, started_at, finished_at)
+       select created_at, updated_at, unit_id, lot_id, product_id, station_id, fixture_id, plan_version_id, operator_id, 8, 'pass', started_at + 1000, finished_at + 1000 from test_runs where id = ? returning id`,
+      [last.id],
+    );
+    await sql(
+      `insert into measurements (created_at, updated_at, run_id, step_index, step_key, step_name, quantity, name, value, unit, low_limit, high_limit, guarded_low, guarded_high, uncertainty, rule, verdict, raw, started_at, measured_at, decision)
+       select created_at, updated_at, ?, step_index, step_key, step_name, quantity, name, value, unit, low_limit - 1, high_limit + 1, guarded_low, guarded_high, uncertainty, rule, verdict, raw, started_at + 1000, measured_at + 1000, decision
+       from measurements where run_id = ? and step_key = ? and quantity = ?`,
+      [runId, last.id, ask.step, ask.quantity],
+    );
+    const after = await check();
+    expect(after.limitSets).toBe(before.limitSets + 1);
+    expect(after.limits.lowLimit).toBeCloseTo((before.limits.lowLimit as number) - 1, 12);
+  });
 
   it('gives every breakdown the same totals and a trend that adds up to them', async () => {
     for (const by of ['lot', 'product', 'station', 'fixture', 'operator', 'day', 'shift'] as BreakdownDimension[]) {

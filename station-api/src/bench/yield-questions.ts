@@ -97,19 +97,17 @@ export async function yieldQuestions(app: INestApplicationContext, sql: Sql, bui
   const lotPareto = paretoSql(false, 'r.lot_id = ?', [lot.id]);
   const productPareto = paretoSql(true, 'r.product_id = ? and r.started_at >= ?', [productId, fromMs]);
 
+  // the values in production order with their limits, one pass (the limit sets are grouped by the reader)
   const valuesSql = (where: string, params: unknown[]) => {
     const statements: [string, unknown[]][] = [
       [
-        `select m.value from test_runs r join measurements m on m.run_id = r.id where r.verdict in ('pass', 'fail') and m.step_key = ? and m.quantity = ? and m.value is not null and ${where} order by r.started_at, r.id, m.id`,
-        [step, qty, ...params],
-      ],
-      [
-        `select m.low_limit, m.high_limit, m.guarded_low, m.guarded_high, max(m.unit), max(m.name), max(m.step_name), max(r.started_at) as last_at from test_runs r join measurements m on m.run_id = r.id
-         where r.verdict in ('pass', 'fail') and m.step_key = ? and m.quantity = ? and m.value is not null and ${where} group by 1, 2, 3, 4 order by last_at desc`,
+        `select m.value, m.low_limit, m.high_limit, m.guarded_low, m.guarded_high, m.unit, m.name, m.step_name, r.started_at
+         from test_runs r join measurements m on m.run_id = r.id where r.verdict in ('pass', 'fail') and m.step_key = ? and m.quantity = ? and m.value is not null and ${where}
+         order by r.started_at, r.id, m.id`,
         [step, qty, ...params],
       ],
     ];
-    return { statements, run: async () => Promise.all(statements.map(([s, ps]) => sql(s, ps))) };
+    return { statements, run: async () => sql(...statements[0]) };
   };
   const lotValues = valuesSql('r.lot_id = ?', [lot.id]);
   const productValues = valuesSql('r.product_id = ? and r.started_at >= ?', [productId, fromMs]);
