@@ -23,7 +23,7 @@ type Sql = (q: string, p?: unknown[]) => Promise<Record<string, unknown>[]>;
  */
 function perUnit(scope: string, firstFilter = ''): string {
   return `with fr as materialized (
-  select f.*, (select l.verdict from test_runs l where l.unit_id = f.unit_id and l.verdict in ('pass', 'fail') order by l.attempt desc, l.id desc limit 1) as last_verdict
+  select f.id, f.unit_id, f.verdict, f.started_at, f.lot_id, f.station_id, (select l.verdict from test_runs l where l.unit_id = f.unit_id and l.verdict in ('pass', 'fail') order by l.attempt desc, l.id desc limit 1) as last_verdict
   from test_runs f where f.verdict in ('pass', 'fail') and ${scope}${firstFilter}
     and not exists (select 1 from test_runs e where e.unit_id = f.unit_id and e.verdict in ('pass', 'fail') and (e.attempt < f.attempt or (e.attempt = f.attempt and e.id < f.id)))
 )`;
@@ -97,12 +97,13 @@ export async function yieldQuestions(app: INestApplicationContext, sql: Sql, bui
   const lotPareto = paretoSql(false, 'r.lot_id = ?', [lot.id]);
   const productPareto = paretoSql(true, 'r.product_id = ? and r.started_at >= ?', [productId, fromMs]);
 
-  // the values in production order with their limits, one pass (the limit sets are grouped by the reader)
+  // the values in production order with their limits, one pass (the limit sets are grouped by the reader); CROSS
+  // JOIN keeps SQLite on the filtered runs first (else it may walk the quantity's index over the whole history)
   const valuesSql = (where: string, params: unknown[]) => {
     const statements: [string, unknown[]][] = [
       [
         `select m.value, m.low_limit, m.high_limit, m.guarded_low, m.guarded_high, m.unit, m.name, m.step_name, r.started_at
-         from test_runs r join measurements m on m.run_id = r.id where r.verdict in ('pass', 'fail') and m.step_key = ? and m.quantity = ? and m.value is not null and ${where}
+         from test_runs r cross join measurements m on m.run_id = r.id where r.verdict in ('pass', 'fail') and m.step_key = ? and m.quantity = ? and m.value is not null and ${where}
          order by r.started_at, r.id, m.id`,
         [step, qty, ...params],
       ],
