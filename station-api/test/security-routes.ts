@@ -74,7 +74,10 @@ export async function tableFingerprints(orm: MikroORM): Promise<Record<string, s
   const tables = await conn.execute("select name from sqlite_master where type = 'table' and name not like 'sqlite_%' order by name");
   const out: Record<string, string> = {};
   for (const { name } of tables) {
-    const rows = await conn.execute(`select * from "${String(name)}" order by rowid`);
+    // a WITHOUT ROWID table (run_steps) has no rowid; a plain scan of it comes in primary-key order
+    const rows = await conn
+      .execute(`select * from "${String(name)}" order by rowid`)
+      .catch(() => conn.execute(`select * from "${String(name)}"`));
     out[String(name)] = `${rows.length} rows ${createHash('sha256').update(JSON.stringify(rows)).digest('hex')}`;
   }
   return out;

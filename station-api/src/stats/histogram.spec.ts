@@ -1,6 +1,6 @@
 import { jStat } from 'jstat';
 import { describe, expect, it } from 'vitest';
-import { freedmanDiaconisWidth, histogram, quantile, sturgesBinCount } from './histogram';
+import { freedmanDiaconisWidth, histogram, quantile, quantileOfSorted, sortedSample, sturgesBinCount } from './histogram';
 
 // Self-constructed example: 25 output-voltage readings (V).
 const VALUES = [
@@ -18,6 +18,28 @@ describe('quantile (Hyndman & Fan definition 7)', () => {
     // NumPy 2 np.percentile(VALUES, [25, 75]) = [5.0, 5.015], computed by the author
     expect(quantile(VALUES, 0.25)).toBeCloseTo(5.0, 12);
     expect(quantile(VALUES, 0.75)).toBeCloseTo(5.015, 12);
+  });
+});
+
+describe('one shared sort (issue 12 speed)', () => {
+  // self-constructed example: 10,001 values in production order, not sorted, with ties and a negative zero
+  const many = Array.from({ length: 10_001 }, (_, i) => (i === 7 ? -0 : Math.round(1000 * Math.sin(i * 12.9898)) / 100));
+
+  it('quantileOfSorted on sortedSample agrees with jStat.percentile and with quantile', () => {
+    // jStat.percentile (linear interpolation between order statistics) as reference
+    const s = sortedSample(many);
+    for (const p of [0, 0.01, 0.25, 0.5, 0.75, 0.99, 1]) {
+      expect(quantileOfSorted(s, p)).toBeCloseTo(jStat.percentile(many, p), 12);
+      expect(quantileOfSorted(s, p)).toBe(quantile(many, p));
+    }
+  });
+
+  it('gives the same histogram with a shared sorted copy as without, and refuses a copy of other values', () => {
+    const include = [-12, 12];
+    expect(histogram(many, { include, sorted: sortedSample(many) })).toEqual(histogram(many, { include }));
+    const h = histogram(many, { include });
+    expect(h.counts.reduce((a, b) => a + b, 0)).toBe(many.length);
+    expect(() => histogram(many, { sorted: sortedSample(many.slice(1)) })).toThrow(RangeError);
   });
 });
 

@@ -1,6 +1,7 @@
 import { requireFiniteArray } from '../measure/guards';
 import { mean, sampleStdDev } from './capability';
-import { normalCdf, normalUpperTail } from './normal';
+import { sortedSample } from './histogram';
+import { erfc } from './normal';
 
 /**
  * Anderson–Darling test of normality with mean and variance estimated from the data ("case 3").
@@ -49,20 +50,30 @@ export function andersonDarlingPValue(adjusted: number): number {
 /**
  * Anderson–Darling normality test.
  * @param values at least 8 finite values, any unit
+ * @param sorted the same values in ascending order when the caller has them already (from sortedSample)
  * @throws RangeError for fewer than 8 values or values that do not vary
  */
-export function andersonDarling(values: readonly number[]): AndersonDarlingResult {
+export function andersonDarling(values: readonly number[], sorted?: ArrayLike<number>): AndersonDarlingResult {
   requireFiniteArray('values', values, MIN_AD_SAMPLE);
   const n = values.length;
   const m = mean(values);
   const s = sampleStdDev(values);
   if (!(s > 0)) throw new RangeError('all values are equal: a normality test needs values that vary');
-  const z = [...values].sort((a, b) => a - b).map((x) => (x - m) / s);
-  let sum = 0;
+  const x = sorted ?? sortedSample(values);
+  if (x.length !== n) throw new RangeError(`sorted holds ${x.length} values, values ${n}`);
+  // ln Φ(zᵢ) and ln(1 − Φ(zᵢ)) from ONE erfc each: Φ(z) = 1 − ½erfc(z/√2) and 1 − Φ(z) = ½erfc(z/√2) for z ≥ 0,
+  // mirrored for z < 0 — the same arithmetic normalCdf and normalUpperTail do, so the same bits, half the work.
+  // The upper tail keeps precision where Φ(z) rounds to 1.
+  const lnCdf = new Float64Array(n);
+  const lnUpper = new Float64Array(n);
   for (let i = 0; i < n; i++) {
-    // ln(1 − Φ(z)) through the upper tail keeps precision where Φ(z) rounds to 1
-    sum += (2 * i + 1) * (Math.log(normalCdf(z[i])) + Math.log(normalUpperTail(z[n - 1 - i])));
+    const z = (x[i] - m) / s;
+    const half = 0.5 * erfc(Math.abs(z) / Math.SQRT2);
+    lnCdf[i] = Math.log(z < 0 ? half : 1 - half);
+    lnUpper[i] = Math.log(z > 0 ? half : 1 - half);
   }
+  let sum = 0;
+  for (let i = 0; i < n; i++) sum += (2 * i + 1) * (lnCdf[i] + lnUpper[n - 1 - i]);
   const statistic = -n - sum / n;
   const adjustedStatistic = statistic * (1 + 0.75 / n + 2.25 / (n * n));
   return {

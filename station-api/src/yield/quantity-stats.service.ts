@@ -1,6 +1,6 @@
 import { EntityManager } from '@mikro-orm/sqlite';
 import { BadRequestException, Injectable } from '@nestjs/common';
-import { andersonDarling, capability, histogram, individualsChart, MIN_AD_SAMPLE, xbarRChart, type SpecLimits } from '../stats';
+import { andersonDarling, capability, histogram, individualsChart, MIN_AD_SAMPLE, sortedSample, xbarRChart, type SpecLimits } from '../stats';
 import type { ControlChartQueryDto, QuantityQueryDto, YieldFilterDto } from './dto/yield-query.dto';
 import { ALL_RUN_FILTERS, resolveFilter, runConditions, type RunFilter, type SqlPart } from './yield-filter';
 import type { CapabilityView, ChartPanel, ControlChartView, QuantityChoice, QuantityLimits } from '../contract/yield-views';
@@ -37,13 +37,15 @@ export class QuantityStatsService {
     const f = resolveFilter(q);
     requireProductOrLot(f);
     const sel = selection(f, q);
-    const conn = this.em.getConnection();
-    const values = ((await conn.execute(`select m.value ${sel.sql} order by r.started_at, r.id, m.id`, sel.params)) as { value: number }[]).map((r) => r.value);
-    const sets = (await conn.execute(
-      `select m.low_limit, m.high_limit, m.guarded_low, m.guarded_high, m.unit, m.name, m.step_name, max(r.started_at) as last_at
-       ${sel.sql} group by m.low_limit, m.high_limit, m.guarded_low, m.guarded_high order by last_at desc`,
+    // One pass over the quantity's rows for the values and their limit sets: the limits are not in the covering
+    // index, so a second statement grouping the limits read every row again (bench:yield, issue 12).
+    const rows = (await this.em.getConnection().execute(
+      `select m.value, m.low_limit, m.high_limit, m.guarded_low, m.guarded_high, m.unit, m.name, m.step_name, r.started_at
+       ${sel.sql} order by r.started_at, r.id, m.id`,
       sel.params,
     )) as Record<string, unknown>[];
+    const values = rows.map((r) => r.value as number);
+    const sets = limitSets(rows);
     const latest = sets[0];
     const limits: QuantityLimits = {
       lowLimit: num(latest?.low_limit),
@@ -65,7 +67,9 @@ export class QuantityStatsService {
       return { ...base, histogram: null, capability: null, normalityPValue: null, problem: 'No values of this quantity in the selection.' };
     }
     const include = [limits.lowLimit, limits.highLimit, limits.guardedLow, limits.guardedHigh].filter((v): v is number => v !== null);
-    const hist = histogram(values, { include });
+    // one sort shared by the histogram's quartiles and range and the normality test
+    const sorted = sortedSample(values);
+    const hist = histogram(values, { include, sorted });
     const spec: SpecLimits = {
       ...(limits.lowLimit !== null ? { lsl: limits.lowLimit } : {}),
       ...(limits.highLimit !== null ? { usl: limits.highLimit } : {}),
@@ -85,7 +89,7 @@ export class QuantityStatsService {
     let normalityPValue: number | null = null;
     if (values.length >= MIN_AD_SAMPLE) {
       try {
-        normalityPValue = andersonDarling(values).pValue;
+        normalityPValue = andersonDarling(values, sorted).pValue;
       } catch (e) {
         if (!(e instanceof RangeError)) throw e;
       }
@@ -157,6 +161,20 @@ function selection(f: RunFilter, q: QuantityQueryDto, join = ''): SqlPart {
       where r.verdict in ('pass', 'fail') and m.step_key = ? and m.quantity = ? and m.value is not null${where.sql}`,
     params: [q.step, q.quantity, ...where.params],
   };
+}
+
+/**
+ * The distinct limit sets (low, high, guarded low, guarded high) among the rows, the most recently used first,
+ * each with the unit and names of its latest row. Rows come in production order, so the last row of a set is its
+ * latest; SQL NULL and a number never match (as SQL's GROUP BY keeps NULL apart).
+ */
+function limitSets(rows: readonly Record<string, unknown>[]): Record<string, unknown>[] {
+  const latest = new Map<string, { row: Record<string, unknown>; at: number; order: number }>();
+  rows.forEach((r, order) => {
+    const key = `${String(r.low_limit)}|${String(r.high_limit)}|${String(r.guarded_low)}|${String(r.guarded_high)}`;
+    latest.set(key, { row: r, at: Number(r.started_at), order });
+  });
+  return [...latest.values()].sort((a, b) => b.at - a.at || b.order - a.order).map((x) => x.row);
 }
 
 /** A quantity's limits and meaning belong to a product's plan: mixing products would mix specifications. */

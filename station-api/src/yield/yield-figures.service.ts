@@ -59,8 +59,9 @@ export class YieldFiguresService {
   async figures(q: YieldFiguresQueryDto): Promise<YieldFiguresView> {
     const filter = resolveFilter(q);
     const by = q.by ?? 'lot';
-    const breakdown = await this.grouped(filter, by);
-    const trend = by === 'day' ? breakdown : await this.grouped(filter, 'day');
+    const { groups, days, steps } = await this.read(filter, by);
+    const breakdown = this.toGroups(groups, by);
+    const trend = by === 'day' ? breakdown : this.toGroups(days, 'day');
     const total = breakdown.reduce(
       (acc, g) => ({ tested: acc.tested + g.unitsTested, first: acc.first + g.firstPass.x, final: acc.final + g.final.x }),
       { tested: 0, first: 0, final: 0 },
@@ -68,25 +69,55 @@ export class YieldFiguresService {
     return {
       by,
       overall: group('all', 'All units in the selection', total.tested, total.first, total.final),
-      rty: await this.rty(filter),
+      rty: rtyOf(steps),
       breakdown,
       trend,
       definitions: YIELD_DEFINITIONS,
     };
   }
 
-  private async grouped(filter: RunFilter, by: BreakdownDimension): Promise<YieldGroup[]> {
+  /**
+   * One statement for the whole view: the per-unit rows are ranked once (a materialized CTE) and read three
+   * times, for the breakdown, the daily trend and RTY. RTY reads the per-step outcome of each first judged run
+   * from `run_steps` (kept by a trigger with the measurements, Migration20261203020000) instead of the
+   * measurements themselves: same counts, a tenth of the rows, none of them wide.
+   */
+  private async read(filter: RunFilter, by: BreakdownDimension): Promise<{ groups: GroupRow[]; days: GroupRow[]; steps: StepRow[] }> {
     const cte = perUnitCte(filter);
     const d = DIMENSIONS[by];
+    // the first branch names the columns of the whole UNION ALL
+    const counts = `count(*) as tested, sum(case when p.first_verdict = 'pass' then 1 else 0 end) as first_passed,
+  sum(case when p.last_verdict = 'pass' and u.state <> 'scrapped' then 1 else 0 end) as final_passed, null as step_index`;
+    const trend =
+      by === 'day'
+        ? ''
+        : `union all
+select 't', ${DIMENSIONS.day.key}, ${DIMENSIONS.day.label}, ${counts} from per_unit p join units u on u.id = p.unit_id group by ${DIMENSIONS.day.key}
+`;
     const rows = (await this.em.getConnection().execute(
       `${cte.sql}
-select ${d.key} as grp, ${d.label} as label, count(*) as tested,
-  sum(case when p.first_verdict = 'pass' then 1 else 0 end) as first_passed,
-  sum(case when p.last_verdict = 'pass' and u.state <> 'scrapped' then 1 else 0 end) as final_passed
+select 'g' as part, ${d.key} as grp, ${d.label} as label, ${counts}
 from per_unit p join units u on u.id = p.unit_id ${d.join}
-group by grp`,
+group by grp
+${trend}union all
+select 'r', l.step_key, max(l.step_name), sum(x.entered), sum(x.passed), null, min(x.step_index)
+from (
+  select s.step_label_id, min(s.step_index) as step_index, count(*) as entered, sum(case when s.failed = 0 then 1 else 0 end) as passed
+  from per_unit p join run_steps s on s.run_id = p.run_id group by s.step_label_id
+) x join step_labels l on l.id = x.step_label_id
+group by l.step_key`,
       cte.params,
-    )) as GroupRow[];
+    )) as (GroupRow & { part: 'g' | 't' | 'r'; step_index: number | null })[];
+    const out = { groups: [] as GroupRow[], days: [] as GroupRow[], steps: [] as StepRow[] };
+    for (const r of rows) {
+      if (r.part === 'g') out.groups.push(r);
+      else if (r.part === 't') out.days.push(r);
+      else out.steps.push({ step_key: String(r.grp), step_name: String(r.label), step_index: Number(r.step_index), entered: r.tested, passed: r.first_passed });
+    }
+    return out;
+  }
+
+  private toGroups(rows: GroupRow[], by: BreakdownDimension): YieldGroup[] {
     if (by === 'shift') return this.foldShifts(rows);
     const out = rows.map((r) => group(String(r.grp), String(r.label ?? r.grp), r.tested, r.first_passed, r.final_passed));
     return out.sort((a, b) => (by === 'day' ? a.key.localeCompare(b.key) : a.label.localeCompare(b.label, undefined, { numeric: true })));
@@ -107,30 +138,27 @@ group by grp`,
     }
     return [...acc.entries()].sort((a, b) => a[0] - b[0]).map(([n, a]) => group(String(n), a.name, a.tested, a.first, a.final));
   }
+}
 
-  private async rty(filter: RunFilter): Promise<YieldFiguresView['rty']> {
-    const cte = perUnitCte(filter);
-    const rows = (await this.em.getConnection().execute(
-      `${cte.sql},
-steps as (
-  select m.run_id, m.step_key, min(m.step_index) as step_index, max(m.step_name) as step_name,
-    max(case when m.verdict <> 'pass' then 1 else 0 end) as failed
-  from measurements m join per_unit p on p.run_id = m.run_id
-  group by m.run_id, m.step_key
-)
-select step_key, min(step_index) as step_index, max(step_name) as step_name, count(*) as entered,
-  sum(case when failed = 0 then 1 else 0 end) as passed
-from steps group by step_key order by min(step_index), step_key`,
-      cte.params,
-    )) as { step_key: string; step_name: string; entered: number; passed: number }[];
-    if (rows.length === 0) return { value: null, normalizedYield: null, steps: [], note: RTY_NOTE };
-    const r = rolledThroughputYield(rows.map((s) => ({ step: s.step_key, entered: s.entered, passedFirstTime: s.passed })));
-    const steps: RtyStep[] = rows.map((s, i) => {
-      const { x, n, estimate, lower, upper, confidence, method } = r.steps[i];
-      return { stepKey: s.step_key, stepName: s.step_name, entered: s.entered, passedFirstTime: s.passed, firstPass: { x, n, estimate, lower, upper, confidence, method } };
-    });
-    return { value: r.rty, normalizedYield: r.normalizedYield, steps, note: RTY_NOTE };
-  }
+interface StepRow {
+  step_key: string;
+  step_name: string;
+  step_index: number;
+  entered: number;
+  passed: number;
+}
+
+/** RTY over the steps of the first judged runs, in plan order (lowest step index, then key). */
+function rtyOf(unordered: StepRow[]): YieldFiguresView['rty'] {
+  if (unordered.length === 0) return { value: null, normalizedYield: null, steps: [], note: RTY_NOTE };
+  // the order SQL's "order by min(step_index), step_key" gave (binary comparison of the keys)
+  const rows = [...unordered].sort((a, b) => a.step_index - b.step_index || (a.step_key < b.step_key ? -1 : a.step_key > b.step_key ? 1 : 0));
+  const r = rolledThroughputYield(rows.map((s) => ({ step: s.step_key, entered: s.entered, passedFirstTime: s.passed })));
+  const steps: RtyStep[] = rows.map((s, i) => {
+    const { x, n, estimate, lower, upper, confidence, method } = r.steps[i];
+    return { stepKey: s.step_key, stepName: s.step_name, entered: s.entered, passedFirstTime: s.passed, firstPass: { x, n, estimate, lower, upper, confidence, method } };
+  });
+  return { value: r.rty, normalizedYield: r.normalizedYield, steps, note: RTY_NOTE };
 }
 
 function group(key: string, label: string, tested: number, firstPassed: number, finalPassed: number): YieldGroup {
