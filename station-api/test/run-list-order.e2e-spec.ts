@@ -3,7 +3,7 @@ import { refreshPlannerStatistics } from '../src/database/maintenance/planner-st
 import { groupSql, pageRunIds, runGroups, SMALL_LIST, type SqlExec } from '../src/runs/run-list-order';
 import { RUN_SORT_KEYS, RUN_VERDICTS_SORTED, runFilterSql, type RunFilter } from '../src/runs/run-queries';
 import { RunsService } from '../src/runs/runs.service';
-import { RUN_VERDICTS } from '../src/runs/dto/runs.dto';
+import { RUN_VERDICTS, type RunsQueryDto } from '../src/runs/dto/runs.dto';
 import { createTestApp, TestApp } from './create-test-app';
 
 /** Deterministic pseudo-random numbers (mulberry32, common practice, no source). */
@@ -166,10 +166,28 @@ describe('runs list: every sort read from an index', () => {
     for (const [sql, params] of sent.filter(([q]) => / order by /.test(q) && / limit \?/.test(q))) {
       const plan = (await exec(`explain query plan ${sql}`, params)).map((r) => String(r.detail));
       const merged = / in \(\?, \?/.test(sql);
-      if (plan.some((d) => d.includes('USE TEMP B-TREE FOR ORDER BY')) && !(merged && plan.some((d) => d.startsWith('SEARCH r USING')))) found.push(`${sql} -> ${plan.join(' / ')}`);
+      // runs found by the ids of one page (a LIMITed sub-select): the sort orders that page only
+      const page = plan.some((d) => d.startsWith('SEARCH r USING INTEGER PRIMARY KEY')) && / in \(select r\.id from test_runs r/.test(sql);
+      if (plan.some((d) => d.includes('USE TEMP B-TREE FOR ORDER BY')) && !page && !(merged && plan.some((d) => d.startsWith('SEARCH r USING')))) found.push(`${sql} -> ${plan.join(' / ')}`);
     }
     expect(sent.length).toBeGreaterThan(RUN_SORT_KEYS.length * 2);
     expect(found).toEqual([]);
+  });
+
+  it('reads newest first in one statement that gives the same page as the walk, under every filter', async () => {
+    const [{ id: stationId }] = await exec('select station_id as id from test_runs group by station_id order by count(*) desc limit 1', []);
+    const [{ id: lotId }] = await exec('select id from lots order by id desc limit 1', []);
+    const filters: RunFilter[] = [{}, { verdict: 'fail' }, { stationId: Number(stationId) }, { lotId: Number(lotId) }, { serial: 'ob-0' }, { from: new Date(Date.now() - 20 * 86_400_000).toISOString() }];
+    for (const f of filters) {
+      const { where, params } = runFilterSql(f);
+      const [{ n }] = await exec(`select count(*) as n from test_runs r${where}`, params);
+      for (const offset of [0, 37, 450]) {
+        const listed = await t.app.get(RunsService).list({ ...f, limit: 50, offset } as RunsQueryDto);
+        const reference = await pageRunIds(exec, { ...f, sort: 'startedAt', dir: 'desc', limit: 50, offset }, Number(n), Number.MAX_SAFE_INTEGER);
+        expect(listed.items.map((r) => r.id), `${JSON.stringify(f)} offset ${offset}`).toEqual(reference);
+        expect(listed.total).toBe(Number(n));
+      }
+    }
   });
 
   it('answers the list route with the runs of the page in order, each with its failed step', async () => {

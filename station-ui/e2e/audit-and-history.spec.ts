@@ -86,10 +86,9 @@ describe('audit trail and unit history (real browser)', () => {
     await page.getByRole('combobox', { name: 'Object', exact: true }).click();
     await page.getByRole('option', { name: 'Unit' }).click();
     await page.waitForURL('**/audit?type=unit');
-    const rows = table.locator('tbody tr');
-    await expect.poll(async () => (await rows.allInnerTexts()).join('\n'), { timeout: 10_000 }).toContain(`Received unit ${units.defective} in repair`);
-    const whats = (await table.locator('tbody tr td:nth-child(4)').allInnerTexts()).map((t) => t.trim());
-    expect(whats).toEqual([
+    // the unfiltered list holds these rows too: wait for the filtered answer itself (reading once raced it)
+    const whats = async () => (await table.locator('tbody tr td:nth-child(4)').allInnerTexts()).map((t) => t.trim());
+    await expect.poll(whats, { timeout: 10_000 }).toEqual([
       `Returned unit ${units.defective} from repair for retest`,
       `Received unit ${units.defective} in repair`,
       `Sent unit ${units.defective} to repair`,

@@ -14,7 +14,8 @@
  * Load average is printed at the start and the end of timing: on a shared machine, judge by the ratios.
  * Options: --runs <n> (default 100000), --reps <n> (default 100: enough samples that p95 is not the
  * largest one or two), --db <file> (time a copy of a file kept by `bench:yield --keep` instead of building
- * one; the same builder made it; the start-up migrates it).
+ * one; the same builder made it; the start-up migrates it), --only <text> (time only the questions whose name
+ * holds the text, to check one change; a full run is what docs/performance.md records).
  */
 import 'reflect-metadata';
 import { mkdtempSync, rmSync, statSync } from 'node:fs';
@@ -96,7 +97,9 @@ async function main(): Promise<void> {
       const { MikroORM: CoreOrm } = await import('@mikro-orm/core');
       const conn = app.get(CoreOrm).em.getConnection();
       const sql = (q: string, p: unknown[] = []) => conn.execute(q, p) as Promise<Record<string, unknown>[]>;
-      const questions = await floorQuestions(app, sql, built);
+      const only = process.argv.indexOf('--only') > 0 ? process.argv[process.argv.indexOf('--only') + 1] : undefined;
+      const questions = (await floorQuestions(app, sql, built)).filter((qn) => !only || qn.name.includes(only));
+      if (only) log(`only the questions whose name holds "${only}": ${questions.length}`);
 
       // each question is timed without planner statistics, then with them (the server's own refresh), in
       // turn, so both see the same machine load and the same page cache

@@ -8,7 +8,13 @@ import type { RunDetailDto, RunListDto, RunsQueryDto } from './dto/runs.dto';
 import type { PlanStep } from '../plans/plan-definition';
 import { RunRefusal } from './run-refusal';
 import { pageRunIds, type SqlExec } from './run-list-order';
-import { failedStepNames, MEASUREMENT_VIEW_SELECT, RUN_VIEW_SELECT, rowToMeasurementView, rowToRunView, runFilterSql } from './run-queries';
+import { failedStepNames, MEASUREMENT_VIEW_SELECT, RUN_VIEW_SELECT, rowToMeasurementView, rowToRunView, runFilterSql, runOrderSql } from './run-queries';
+
+/**
+ * The run view with test_runs as the outer loop (CROSS JOIN keeps SQLite's join order as written), so the page's
+ * runs are found by their ids first: on a small history the planner otherwise started from the plan versions.
+ */
+const RUNS_FIRST_VIEW_SELECT = RUN_VIEW_SELECT.replace(/(?<!left) join /g, ' cross join ');
 
 /** Read side of runs: lists with filters and one run with every measurement. */
 @Injectable()
@@ -21,7 +27,8 @@ export class RunsService {
   /**
    * Newest first unless sorted by another whitelisted column. `to` is exclusive so consecutive windows do not
    * overlap. `serial` matches any part, any case. Each run carries its failed step's name for people to read.
-   * The page's ids come from an index (run-list-order.ts), then only those runs are read and joined.
+   * Newest first is one statement; any other order finds the page's ids from an index (run-list-order.ts), then
+   * reads and joins only those runs.
    */
   async list(q: RunsQueryDto): Promise<RunListDto> {
     const conn = this.em.getConnection();
@@ -29,14 +36,9 @@ export class RunsService {
     const { where, params } = runFilterSql(q);
     // the count needs no join: every filter is on test_runs itself (the serial through a sub-select)
     const [{ total }] = await exec(`select count(*) as total from test_runs r${where}`, params);
-    const ids = await pageRunIds(exec, { ...q, limit: q.limit ?? 50, offset: q.offset ?? 0 }, Number(total));
-    if (ids.length === 0) return { items: [], total: Number(total) };
-    const marks = ids.map(() => '?').join(', ');
-    const byId = new Map<number, Record<string, unknown>>((await exec(`${RUN_VIEW_SELECT} where r.id in (${marks})`, ids)).map((r) => [Number(r.id), r]));
-    const rows = ids.flatMap((id): Record<string, unknown>[] => {
-      const r = byId.get(id);
-      return r ? [r] : [];
-    });
+    const page = { ...q, limit: q.limit ?? 50, offset: q.offset ?? 0 };
+    const rows = await this.pageRows(exec, page, Number(total));
+    if (rows.length === 0) return { items: [], total: Number(total) };
     const failed = rows
       .filter((r) => r.failed_step_key !== null && r.failed_step_key !== undefined)
       .map((r) => ({ id: Number(r.id), planVersionId: Number(r.plan_version_id), failedStepKey: String(r.failed_step_key), checksum: String(r.plan_checksum) }));
@@ -59,6 +61,28 @@ export class RunsService {
     }
     const names = failedStepNames(failed, steps);
     return { items: rows.map((r) => ({ ...rowToRunView(r), failedStepName: names.get(Number(r.id)) ?? null })), total: Number(total) };
+  }
+
+  /**
+   * The rows of one page, in list order. Newest first (the default, and every filter the floor uses) is one
+   * statement: the page's ids from an index of test_runs alone (the walk's own statement for that order), then
+   * their rows joined by id and the page's rows put in order. Every other order finds the page's ids first (pageRunIds), then reads their rows.
+   */
+  private async pageRows(exec: SqlExec, q: RunsQueryDto & { limit: number; offset: number }, total: number): Promise<Record<string, unknown>[]> {
+    if (q.offset >= total) return [];
+    if ((q.sort ?? 'startedAt') === 'startedAt' && (q.dir ?? 'desc') === 'desc') {
+      const { where, params } = runFilterSql(q);
+      const newest = runOrderSql('startedAt', 'desc');
+      return exec(`${RUNS_FIRST_VIEW_SELECT} where r.id in (select r.id from test_runs r${where}${newest} limit ? offset ?)${newest}`, [...params, q.limit, q.offset]);
+    }
+    const ids = await pageRunIds(exec, q, total);
+    if (ids.length === 0) return [];
+    const marks = ids.map(() => '?').join(', ');
+    const byId = new Map<number, Record<string, unknown>>((await exec(`${RUN_VIEW_SELECT} where r.id in (${marks})`, ids)).map((r) => [Number(r.id), r]));
+    return ids.flatMap((id): Record<string, unknown>[] => {
+      const r = byId.get(id);
+      return r ? [r] : [];
+    });
   }
 
   async get(id: number): Promise<RunDetailDto> {
