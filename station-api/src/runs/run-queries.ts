@@ -64,7 +64,10 @@ export function runOrderSql(sort: RunSort = 'startedAt', dir: 'asc' | 'desc' = '
   // only the columns that may be empty get the "empty last" term: in front of a column that never is, it kept
   // the planner from reading the order from an index (issue 11)
   const emptyLast = NULLABLE_SORTS.has(sort) ? `case when ${bare} is null then 1 else 0 end, ` : '';
-  return ` order by ${emptyLast}${col} ${dir}${extra}, r.started_at desc, r.id desc`;
+  // newest first breaks ties; sorted by start time, only the id is left to break them (a repeated started_at term
+  // made the planner sort every run for a page of 50: 11 ms against 1 ms at 100,000 runs, bench:floor)
+  const ties = sort === 'startedAt' ? 'r.id desc' : 'r.started_at desc, r.id desc';
+  return ` order by ${emptyLast}${col} ${dir}${extra}, ${ties}`;
 }
 
 /** Sort columns that may be empty: a run without a failed step, a run still going (no duration). */
