@@ -9,6 +9,9 @@ import { parseShiftStarts, ShiftRun, ShiftStart, shiftAt, ShiftWindow, summarize
 export const SHIFT_CLOCK = Symbol('SHIFT_CLOCK');
 export type ShiftClock = () => Date;
 
+/** The columns of a run the counters use. */
+type RunRow = { station_id: number; unit_id: number; attempt: number; verdict: ShiftRun['verdict']; finished_at: number | null };
+
 /** The current shift's counters per station (arithmetic in ./shift.ts). */
 @Injectable()
 export class ShiftSummaryService {
@@ -30,11 +33,20 @@ export class ShiftSummaryService {
 
   /** Counters of a station for the shift running now; 404 `unknown_station` for an unknown id. */
   async forStation(stationId: number): Promise<ShiftSummaryDto> {
-    const known = await this.em.getConnection().execute<unknown[]>('select 1 from stations where id = ?', [stationId]);
-    if (known.length === 0) {
+    const now = this.clock();
+    const window = this.currentShift(now);
+    // one statement: the station row tells an unknown id from a station without runs this shift
+    const rows = await this.em
+      .getConnection()
+      .execute<(RunRow & { known: number })[]>(
+        'select s.id as known, r.station_id, r.unit_id, r.attempt, r.verdict, r.finished_at from stations s ' +
+          'left join test_runs r on r.station_id = s.id and r.finished_at >= ? and r.finished_at < ? where s.id = ? order by r.id',
+        [window.start.getTime(), window.end.getTime(), stationId],
+      );
+    if (rows.length === 0) {
       throw new NotFoundException({ message: `There is no station with id ${stationId}.`, details: { code: 'unknown_station' } });
     }
-    return (await this.forStations([stationId])).get(stationId)!;
+    return this.summaries([stationId], rows.filter((r) => r.station_id !== null), window, now).get(stationId)!;
   }
 
   /**
@@ -44,23 +56,28 @@ export class ShiftSummaryService {
    */
   async forStations(stationIds: number[], now: Date = this.clock()): Promise<Map<number, ShiftSummaryDto>> {
     const window = this.currentShift(now);
+    const rows =
+      stationIds.length === 0
+        ? []
+        : await this.em
+            .getConnection()
+            .execute<RunRow[]>(
+              `select station_id, unit_id, attempt, verdict, finished_at from test_runs ` +
+                `where station_id in (${stationIds.map(() => '?').join(', ')}) and finished_at >= ? and finished_at < ? order by id`,
+              [...stationIds, window.start.getTime(), window.end.getTime()],
+            );
+    return this.summaries(stationIds, rows, window, now);
+  }
+
+  private summaries(stationIds: number[], rows: RunRow[], window: ShiftWindow, now: Date): Map<number, ShiftSummaryDto> {
     const byStation = new Map<number, ShiftRun[]>(stationIds.map((id) => [id, []]));
-    if (stationIds.length > 0) {
-      const rows = await this.em
-        .getConnection()
-        .execute<{ station_id: number; unit_id: number; attempt: number; verdict: ShiftRun['verdict']; finished_at: number | null }[]>(
-          `select station_id, unit_id, attempt, verdict, finished_at from test_runs ` +
-            `where station_id in (${stationIds.map(() => '?').join(', ')}) and finished_at >= ? and finished_at < ? order by id`,
-          [...stationIds, window.start.getTime(), window.end.getTime()],
-        );
-      for (const r of rows) {
-        byStation.get(Number(r.station_id))?.push({
-          unitId: Number(r.unit_id),
-          attempt: Number(r.attempt),
-          verdict: r.verdict,
-          finishedAt: r.finished_at === null ? null : new Date(Number(r.finished_at)),
-        });
-      }
+    for (const r of rows) {
+      byStation.get(Number(r.station_id))?.push({
+        unitId: Number(r.unit_id),
+        attempt: Number(r.attempt),
+        verdict: r.verdict,
+        finishedAt: r.finished_at === null ? null : new Date(Number(r.finished_at)),
+      });
     }
     const out = new Map<number, ShiftSummaryDto>();
     for (const stationId of stationIds) {
