@@ -25,6 +25,12 @@ import { performance } from 'node:perf_hooks';
 import { describeStorageSize, measurementStorageSize } from '../runs/measurement-storage-size';
 import { ms, quantile } from './bench-stats';
 
+/** The text after an option, or undefined when it is not given. */
+function textArg(name: string): string | undefined {
+  const i = process.argv.indexOf(name);
+  return i > 0 ? process.argv[i + 1] : undefined;
+}
+
 function arg(name: string, fallback: number): number {
   const i = process.argv.indexOf(name);
   const v = i > 0 ? Number(process.argv[i + 1]) : fallback;
@@ -60,7 +66,7 @@ async function timeIt(reps: number, fn: (i: number) => Promise<unknown>): Promis
 async function main(): Promise<void> {
   const runTarget = arg('--runs', 100_000);
   const reps = arg('--reps', 100);
-  const reuse = process.argv.indexOf('--db') > 0 ? process.argv[process.argv.indexOf('--db') + 1] : undefined;
+  const reuse = textArg('--db');
   const dir = reuse ? undefined : mkdtempSync(join(tmpdir(), 'railwright-floor-'));
   const dbPath = reuse ?? join(dir!, 'floor.sqlite');
   Object.assign(process.env, {
@@ -97,7 +103,7 @@ async function main(): Promise<void> {
       const { MikroORM: CoreOrm } = await import('@mikro-orm/core');
       const conn = app.get(CoreOrm).em.getConnection();
       const sql = (q: string, p: unknown[] = []) => conn.execute(q, p) as Promise<Record<string, unknown>[]>;
-      const only = process.argv.indexOf('--only') > 0 ? process.argv[process.argv.indexOf('--only') + 1] : undefined;
+      const only = textArg('--only');
       const questions = (await floorQuestions(app, sql, built)).filter((qn) => !only || qn.name.includes(only));
       if (only) log(`only the questions whose name holds "${only}": ${questions.length}`);
 

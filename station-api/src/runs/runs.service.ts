@@ -7,7 +7,7 @@ import type { CalibrationRecordDto } from '../fixtures/dto/calibration.dto';
 import type { RunDetailDto, RunListDto, RunsQueryDto } from './dto/runs.dto';
 import type { PlanStep } from '../plans/plan-definition';
 import { RunRefusal } from './run-refusal';
-import { pageRunIds, type SqlExec } from './run-list-order';
+import { groupSql, pageRunIds, runGroups, type SqlExec } from './run-list-order';
 import { failedStepNames, MEASUREMENT_VIEW_SELECT, RUN_VIEW_SELECT, rowToMeasurementView, rowToRunView, runFilterSql, runOrderSql } from './run-queries';
 
 /**
@@ -65,15 +65,17 @@ export class RunsService {
 
   /**
    * The rows of one page, in list order. Newest first (the default, and every filter the floor uses) is one
-   * statement: the page's ids from an index of test_runs alone (the walk's own statement for that order), then
-   * their rows joined by id and the page's rows put in order. Every other order finds the page's ids first (pageRunIds), then reads their rows.
+   * statement: the walk's own statement for that order (one group) picks the page's ids inside it, then their
+   * rows are joined by id and put in order. Every other order finds the page's ids first (pageRunIds), then reads
+   * their rows.
    */
   private async pageRows(exec: SqlExec, q: RunsQueryDto & { limit: number; offset: number }, total: number): Promise<Record<string, unknown>[]> {
     if (q.offset >= total) return [];
     if ((q.sort ?? 'startedAt') === 'startedAt' && (q.dir ?? 'desc') === 'desc') {
-      const { where, params } = runFilterSql(q);
-      const newest = runOrderSql('startedAt', 'desc');
-      return exec(`${RUNS_FIRST_VIEW_SELECT} where r.id in (select r.id from test_runs r${where}${newest} limit ? offset ?)${newest}`, [...params, q.limit, q.offset]);
+      const filter = runFilterSql(q);
+      const [newest] = (await runGroups(exec, 'startedAt', 'desc', filter))!;
+      const page = groupSql(newest, filter);
+      return exec(`${RUNS_FIRST_VIEW_SELECT} where r.id in (${page.sql})${runOrderSql('startedAt', 'desc')}`, [...page.params, q.limit, q.offset]);
     }
     const ids = await pageRunIds(exec, q, total);
     if (ids.length === 0) return [];
